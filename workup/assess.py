@@ -1,0 +1,120 @@
+"""One call from a case to everything the fellow needs: indices, disorders, patterns, tests.
+
+Indices and disorders come from one draw (the latest by default); the pattern ranking reads every
+draw of the case, because a loading-test draw and a baseline draw answer different questions.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import Any
+
+from workup import disorders as _disorders
+from workup import indices as _indices
+from workup import patterns as _patterns
+from workup.analytes import Panel, analyte
+from workup.cautions import CAUTION_LINES
+from workup.findings import Disorder, DrawResult, Finding, NextTest, PatternCall
+from workup.inputs import inputs_for
+from workup.model import Case, Draw, GasSample
+from workup.quantity import unusual
+from workup.settings import Settings, resolve
+
+
+@dataclass(frozen=True)
+class Assessment:
+    """The full assessment of a case, centred on one draw."""
+
+    case_label: str
+    """The case's label."""
+    draw_label: str | None
+    """The draw the indices and disorders come from (None for a case without draws)."""
+    indices: dict[str, Finding]
+    """Every index of that draw, by id."""
+    disorders: list[Disorder]
+    """Acid-base disorders of that draw, primary first."""
+    patterns: list[PatternCall]
+    """Causes of a normal-gap acidosis, best first, judged on every draw."""
+    next_tests: list[NextTest]
+    """Suggested tests, most useful first."""
+    cautions: list[str]
+    """Case-specific cautions followed by the standing cautions."""
+    ranking_notes: list[str] = field(default_factory=list)
+    """Statements about the ranking as a whole."""
+    draws: list[DrawResult] = field(default_factory=list)
+    """Per-draw results for every draw, oldest first."""
+    settings: Settings | None = None
+    """The settings in force."""
+
+    def to_json(self) -> dict[str, Any]:
+        """The documented JSON object of ``workup assess --json``."""
+        return {
+            "case": self.case_label,
+            "draw": self.draw_label,
+            "indices": {k: f.to_json() for k, f in self.indices.items()},
+            "disorders": [d.to_json() for d in self.disorders],
+            "patterns": [p.to_json() for p in self.patterns],
+            "next_tests": [t.to_json() for t in self.next_tests],
+            "ranking_notes": list(self.ranking_notes),
+            "cautions": list(self.cautions),
+        }
+
+    @property
+    def leading(self) -> PatternCall | None:
+        """The best-ranked pattern, if any pattern was ranked."""
+        return self.patterns[0] if self.patterns else None
+
+
+def draw_result(case: Case, draw: Draw, settings: Settings) -> DrawResult:
+    """Compute the indices and disorders of one draw."""
+    x = inputs_for(case, draw, settings)
+    found = _indices.compute_all(x)
+    return DrawResult(draw.label, x, found, _disorders.analyse(x, found))
+
+
+def value_cautions(draw: Draw) -> list[str]:
+    """Cautions about the draw's values themselves (unusual values, gas sample type)."""
+    out = []
+    for panel in Panel:
+        for key, m in draw.panel(panel).measurements().items():
+            a = analyte(panel, key)
+            note = unusual(a, m)
+            if note:
+                out.append(f"{draw.label}: {panel.value.replace('_', ' ')} {note}")
+    if draw.blood_gas.sample is not GasSample.arterial and draw.blood_gas.measurements():
+        out.append(
+            f"{draw.label}: the gas is {draw.blood_gas.sample.value}; the compensation rules were "
+            "derived on arterial blood (venous pCO2 runs about 4–6 mmHg higher, pH about 0.03 lower)"
+        )
+    return out
+
+
+def assess(
+    case: Case, draw_label: str | None = None, user_overrides: dict[str, float] | None = None
+) -> Assessment:
+    """Assess ``case``; indices and disorders from ``draw_label`` (default: the latest draw)."""
+    settings = resolve(user_overrides or {}, case.settings)
+    results = [draw_result(case, d, settings) for d in case.draws]
+    ranking = _patterns.rank(results, case, settings)
+    if not case.draws:
+        return Assessment(
+            case.label, None, {}, [], ranking.calls, ranking.next_tests,
+            ["The case has no draws yet.", *CAUTION_LINES], ranking.notes, results, settings,
+        )  # fmt: skip
+    draw = case.draw(draw_label)
+    current = next(r for r in results if r.label == draw.label)
+    cautions = value_cautions(draw) + [
+        r for f in current.findings.values() if f.status.value == "not_valid" for r in f.reasons[:1]
+    ]
+    return Assessment(
+        case_label=case.label,
+        draw_label=draw.label,
+        indices=current.findings,
+        disorders=current.disorders,
+        patterns=ranking.calls,
+        next_tests=ranking.next_tests,
+        cautions=[*dict.fromkeys(cautions), *CAUTION_LINES],
+        ranking_notes=ranking.notes,
+        draws=results,
+        settings=settings,
+    )

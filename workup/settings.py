@@ -1,0 +1,158 @@
+"""Reference values and cut-offs: documented defaults, overridable per user and per case.
+
+Reference intervals belong to the user's laboratory; the defaults below are starting points, each
+with its source. Precedence: a case's ``settings:`` over the user's settings file over the
+defaults. The user's file is ``settings.yaml`` in the platformdirs user config folder
+(``~/.config/workup/settings.yaml`` on Linux), a flat mapping of the names below.
+"""
+
+from __future__ import annotations
+
+from pathlib import Path
+from typing import Any
+
+from pydantic import BaseModel, ConfigDict, Field, ValidationError
+
+
+class Settings(BaseModel):
+    """Every tunable number the calculators use. Units as in each field's description."""
+
+    model_config = ConfigDict(extra="forbid", frozen=True, use_attribute_docstrings=True)
+
+    anion_gap_mean: float = Field(10.0, json_schema_extra={"unit": "mmol/L"})
+    """Laboratory mean anion gap (without K). Common practice; ion-selective-electrode analyzers
+    run lower (mean 7.2, Sadjadi et al., Int J Nephrol Renovasc Dis 2013) and Kraut & Madias
+    (CJASN 2007) stress method-to-method variation, so set your laboratory's value."""
+    anion_gap_upper: float = Field(14.0, json_schema_extra={"unit": "mmol/L"})
+    """Upper reference limit of the anion gap (without K); above it the gap is called high.
+    Common practice; set your laboratory's."""
+    albumin_normal: float = Field(40.0, json_schema_extra={"unit": "g/L"})
+    """Normal albumin for the anion-gap correction (4.0 g/dL). Common practice; 44 g/L is also used
+    (Figge et al., Crit Care Med 1998)."""
+    bicarbonate_normal: float = Field(24.0, json_schema_extra={"unit": "mmol/L"})
+    """Normal bicarbonate for compensation rules and the delta ratio (Narins & Emmett 1980)."""
+    pco2_normal: float = Field(40.0, json_schema_extra={"unit": "mmHg"})
+    """Normal arterial pCO2 for compensation rules (Narins & Emmett 1980)."""
+    ph_low: float = Field(7.35, json_schema_extra={"unit": "pH"})
+    """Lower limit of normal arterial pH (common practice)."""
+    ph_high: float = Field(7.45, json_schema_extra={"unit": "pH"})
+    """Upper limit of normal arterial pH (common practice)."""
+    bicarbonate_low: float = Field(22.0, json_schema_extra={"unit": "mmol/L"})
+    """Lower limit of normal serum bicarbonate (common practice)."""
+    bicarbonate_high: float = Field(28.0, json_schema_extra={"unit": "mmol/L"})
+    """Upper limit of normal serum bicarbonate (common practice)."""
+    potassium_low: float = Field(3.5, json_schema_extra={"unit": "mmol/L"})
+    """Lower limit of normal serum potassium (common practice)."""
+    potassium_high: float = Field(5.0, json_schema_extra={"unit": "mmol/L"})
+    """Upper limit of normal serum potassium (common practice)."""
+    hh_ph_tolerance: float = Field(0.03, json_schema_extra={"unit": "pH units"})
+    """Largest acceptable gap between measured and Henderson–Hasselbalch pH (common practice)."""
+    gas_serum_bicarbonate_tolerance: float = Field(4.0, json_schema_extra={"unit": "mmol/L"})
+    """Largest acceptable gap between gas and serum bicarbonate (common practice)."""
+    uag_negative_below: float = Field(-10.0, json_schema_extra={"unit": "mmol/L"})
+    """A urine anion gap at or below this is called negative (common practice)."""
+    uag_positive_above: float = Field(10.0, json_schema_extra={"unit": "mmol/L"})
+    """A urine anion gap at or above this is called positive (common practice)."""
+    urine_sodium_min: float = Field(25.0, json_schema_extra={"unit": "mmol/L"})
+    """Urine sodium below this makes distal delivery too low for the urine anion gap and TTKG
+    (common practice; 20 is also used)."""
+    urine_ph_bicarbonaturia: float = Field(6.5, json_schema_extra={"unit": "pH"})
+    """Urine pH above this suggests bicarbonaturia, which makes the urine anion gap unreliable
+    (Berend et al., Kidney Dis 2017)."""
+    uog_low_below: float = Field(100.0, json_schema_extra={"unit": "mOsm/kg"})
+    """In acidosis a urine osmolal gap below this means low ammonium (Kamel et al., AJKD 1997)."""
+    uog_high_above: float = Field(150.0, json_schema_extra={"unit": "mOsm/kg"})
+    """In acidosis a urine osmolal gap above this means adequate ammonium (Berend et al. 2017,
+    Table 1: distal and type 4 RTA below 150, diarrhea above 200)."""
+    nh4_creatinine_low_below: float = Field(3.0, json_schema_extra={"unit": "mmol/mmol"})
+    """Urine NH4/creatinine below this during acidosis is inappropriately low. Derived, common
+    practice: the expected > 200 mmol/day of NH4 over 10–15 mmol/day of creatinine is > 13."""
+    nh4_creatinine_adequate_above: float = Field(10.0, json_schema_extra={"unit": "mmol/mmol"})
+    """Urine NH4/creatinine above this during acidosis is an adequate renal response (derived,
+    common practice; see nh4_creatinine_low_below)."""
+    urine_ph_distal_max: float = Field(5.5, json_schema_extra={"unit": "pH"})
+    """During acidosis a urine pH above this suggests a distal acidification defect
+    (Berend et al. 2017; Rodríguez Soriano, JASN 2002)."""
+    ttkg_low_hypokalemia: float = Field(3.0, json_schema_extra={"unit": "ratio"})
+    """In hypokalemia a TTKG below this is appropriate renal conservation (Ethier et al., AJKD 1990;
+    common practice cut-off 2–3)."""
+    ttkg_low_hyperkalemia: float = Field(7.0, json_schema_extra={"unit": "ratio"})
+    """In hyperkalemia a TTKG below this suggests mineralocorticoid deficiency or resistance
+    (common practice; from memory, Choi & Ziyadeh, JASN 2008)."""
+    ukcr_low: float = Field(1.5, json_schema_extra={"unit": "mmol/mmol"})
+    """In hypokalemia urine K/creatinine below this is appropriate conservation (Halperin,
+    Afr J Nephrol 2017)."""
+    ukcr_high: float = Field(20.0, json_schema_extra={"unit": "mmol/mmol"})
+    """In hyperkalemia urine K/creatinine above this is an appropriate renal response (Halperin,
+    Afr J Nephrol 2017)."""
+    fehco3_distal_max: float = Field(5.0, json_schema_extra={"unit": "%"})
+    """FEHCO3 on bicarbonate loading below this fits classic distal RTA (Rodríguez Soriano 2002)."""
+    fehco3_proximal_min: float = Field(15.0, json_schema_extra={"unit": "%"})
+    """FEHCO3 on bicarbonate loading above this fits proximal RTA (Rodríguez Soriano 2002:
+    > 10–15%)."""
+    loading_bicarbonate_min: float = Field(20.0, json_schema_extra={"unit": "mmol/L"})
+    """Plasma bicarbonate must be raised to at least this for FEHCO3 on loading to be read
+    (Rodríguez Soriano 2002: 20–22)."""
+    ub_pco2_normal_min: float = Field(20.0, json_schema_extra={"unit": "mmHg"})
+    """Urine-minus-blood pCO2 above this after bicarbonate loading is normal distal H+ secretion
+    (Rodríguez Soriano 2002; Berend et al. 2017 use 30)."""
+    ub_pco2_urine_ph_min: float = Field(7.6, json_schema_extra={"unit": "pH"})
+    """The urine-minus-blood pCO2 is read only once urine pH exceeds this (Rodríguez Soriano 2002)."""
+    serum_osmolal_gap_upper: float = Field(10.0, json_schema_extra={"unit": "mOsm/kg"})
+    """A serum osmolal gap above this is raised (common practice)."""
+    fe_phosphate_wasting_above: float = Field(15.0, json_schema_extra={"unit": "%"})
+    """FEPO4 above this with a low plasma phosphate suggests renal wasting (common practice 5–15%)."""
+    phosphate_low: float = Field(0.8, json_schema_extra={"unit": "mmol/L"})
+    """Lower limit of normal plasma phosphate (common practice)."""
+    tmp_gfr_low: float = Field(0.8, json_schema_extra={"unit": "mmol/L"})
+    """Lower limit of adult TmP/GFR (from memory, Payne, Ann Clin Biochem 1998: 0.8–1.35)."""
+    fe_urate_high_above: float = Field(15.0, json_schema_extra={"unit": "%"})
+    """FE urate above this supports proximal tubulopathy (common practice 10–15%)."""
+    egfr_ckd_below: float = Field(30.0, json_schema_extra={"unit": "mL/min/1.73 m2"})
+    """eGFR below this makes CKD a sufficient cause of acidosis (common practice; acidosis is
+    uncommon above 30–40)."""
+    delta_min_bicarbonate_fall: float = Field(4.0, json_schema_extra={"unit": "mmol/L"})
+    """The delta ratio is not read when bicarbonate has fallen less than this (common practice)."""
+
+
+DEFAULTS = Settings()
+
+
+def describe(name: str) -> str:
+    """The documentation of setting ``name`` (its source) as one line."""
+    info = Settings.model_fields[name]
+    unit = (info.json_schema_extra or {}).get("unit", "")  # type: ignore[union-attr]
+    return f"{name} = {info.default} {unit}: " + " ".join((info.description or "").split())
+
+
+def user_settings_path() -> Path:
+    """Where the user's settings file lives."""
+    from platformdirs import user_config_path
+
+    return user_config_path("workup", appauthor=False) / "settings.yaml"
+
+
+def load_user_overrides(path: Path | None = None) -> dict[str, float]:
+    """The user's overrides, or {} when there is no settings file. Raises ValueError when bad."""
+    import yaml
+
+    path = path or user_settings_path()
+    if not path.exists():
+        return {}
+    data = yaml.safe_load(path.read_text(encoding="utf-8")) or {}
+    if not isinstance(data, dict):
+        raise ValueError(f"{path}: expected a mapping of setting names to numbers")
+    try:
+        Settings(**data)
+    except ValidationError as exc:
+        first = exc.errors()[0]
+        raise ValueError(f"{path}: {'.'.join(map(str, first['loc']))}: {first['msg']}") from None
+    return {k: float(v) for k, v in data.items()}
+
+
+def resolve(*overrides: dict[str, Any]) -> Settings:
+    """Defaults with each mapping of overrides applied in turn (later wins)."""
+    merged: dict[str, Any] = {}
+    for o in overrides:
+        merged.update(o)
+    return Settings(**merged) if merged else DEFAULTS
