@@ -1,0 +1,45 @@
+"""``workup note FILE [--draw LABEL] [--style brief|full] [--format text|markdown]``."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from pathlib import Path
+
+from workup.assess import assess
+from workup.commands._common import load_or_report, user_overrides
+from workup.note import FORMATS, STYLES, draft_note
+
+
+def add_arguments(p: argparse.ArgumentParser) -> None:
+    """Arguments of ``workup note``."""
+    p.add_argument("file", type=Path, help="case file (YAML)")
+    p.add_argument("--draw", help="label of the draw to assess (default: the latest)")
+    p.add_argument(
+        "--style",
+        choices=STYLES,
+        default="full",
+        help="brief: a few lines for a daily progress note; full: an initial consult (default)",
+    )
+    p.add_argument(
+        "--format",
+        dest="fmt",
+        choices=FORMATS,
+        default="text",
+        help="text: 80 columns, plain punctuation (default); markdown: headings and a table",
+    )
+
+
+def run(args: argparse.Namespace) -> int:
+    """Print the drafted note; 2 when the file or draw is bad."""
+    case = load_or_report(args.file)
+    overrides = user_overrides()
+    if case is None or overrides is None:
+        return 2
+    try:
+        result = assess(case, args.draw, overrides)
+    except KeyError as exc:
+        print(f"workup: {args.file}: {exc.args[0]}", file=sys.stderr)
+        return 2
+    sys.stdout.write(draft_note(result, case, args.style, args.fmt))
+    return 0

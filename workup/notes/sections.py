@@ -1,0 +1,548 @@
+"""What a note says, section by section, before any layout: the order a consult reads.
+
+Each builder returns a :class:`Section` of plain sentences (and list items). Sentences restate the
+assessment: numbers come from its findings (formatted by :mod:`workup.formatting`) or from the
+values entered for the draw; evidence and reasons are quoted as the analysis wrote them.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+
+from workup.analytes import Panel
+from workup.assess import Assessment
+from workup.cautions import CAUTION_LINES, CAUTION_TEXT
+from workup.findings import Disorder, Evidence, Finding, PatternCall, Status, Verdict
+from workup.model import Case, Draw
+from workup.notes import phrases as ph
+from workup.notes.values import values_line, when, written_number
+from workup.settings import DEFAULTS
+
+
+@dataclass
+class Section:
+    """One part of the note.
+
+    In the ``values`` section the items are the values lines, one per draw, which a markdown note
+    shows as a table instead.
+    """
+
+    key: str
+    """Stable id: ``values``, ``acid_base``, ``gaps``, ``renal_acid``, ``potassium``, ``causes``,
+    ``next_tests``, ``caveats`` or ``caution``."""
+    title: str
+    """The heading (markdown) or lead-in (text)."""
+    sentences: list[str] = field(default_factory=list)
+    """Running prose."""
+    items: list[str] = field(default_factory=list)
+    """List items shown after the prose (one per line)."""
+
+
+@dataclass
+class Context:
+    """What the builders share: the assessment, the case, the style and what was said already."""
+
+    a: Assessment
+    """The assessment the note restates."""
+    case: Case
+    """The case (for the entered values and draw times)."""
+    brief: bool
+    """True for the daily-progress style."""
+    said: set[str] = field(default_factory=set)
+    """Reasons already written, so the closing caveats do not repeat them."""
+
+    def finding(self, id: str) -> Finding | None:
+        """The assessed draw's finding ``id``, or None when this version does not compute it."""
+        return self.a.indices.get(id)
+
+    def clause(self, id: str, label: str, with_reading: bool = True) -> str | None:
+        """The clause for finding ``id`` (None when absent), noting the reasons it wrote."""
+        f = self.finding(id)
+        if f is None:
+            return None
+        if f.status in (Status.caution, Status.not_valid):
+            self.said.update(ph.caveats(f, self.brief))
+        return ph.clause(f, label, self.brief, with_reading)
+
+    @property
+    def draw(self) -> Draw | None:
+        """The assessed draw."""
+        if self.a.draw_label is None:
+            return None
+        return next((d for d in self.case.draws if d.label == self.a.draw_label), None)
+
+
+# ---------------------------------------------------------------------------------------------
+# values
+
+
+def values_section(c: Context) -> Section:
+    """The entered values with units and draw times (every draw in a consult note)."""
+    s = Section("values", "Values")
+    draw = c.draw
+    if draw is None:
+        s.sentences.append("The case has no draws yet, so there is nothing to assess.")
+        return s
+    others = [d for d in c.case.draws if d.label != draw.label]
+    if not others or c.brief:
+        s.title = f'Values, "{draw.label}" draw ({when(draw)})'
+        s.items.append(values_line(draw, c.brief) + ".")
+    if not others:
+        return s
+    if c.brief:
+        s.sentences.append(
+            "Other draws, read for the causes: "
+            + "; ".join(f'"{d.label}" ({when(d)})' for d in others)
+            + "."
+        )
+        return s
+    s.sentences.append(
+        f'Indices are from the "{draw.label}" draw; the causes are judged on every draw.'
+    )
+    for d in c.case.draws:
+        s.items.append(f'"{d.label}" ({when(d)}): {values_line(d, False)}.')
+    return s
+
+
+# ---------------------------------------------------------------------------------------------
+# acid-base
+
+
+# The compensation index that belongs to each primary disorder (by detail where it matters).
+COMPENSATION_INDEX: dict[str, dict[str | None, tuple[str, ...]]] = {
+    "normal_gap_metabolic_acidosis": {None: ("expected_pco2",)},
+    "high_gap_metabolic_acidosis": {None: ("expected_pco2",)},
+    "metabolic_acidosis": {None: ("expected_pco2",)},
+    "metabolic_alkalosis": {None: ("expected_pco2_metabolic_alkalosis",)},
+    "respiratory_acidosis": {
+        "acute": ("expected_bicarbonate_respiratory_acidosis_acute",),
+        "chronic": ("expected_bicarbonate_respiratory_acidosis_chronic",),
+        None: (
+            "expected_bicarbonate_respiratory_acidosis_acute",
+            "expected_bicarbonate_respiratory_acidosis_chronic",
+        ),
+    },
+    "respiratory_alkalosis": {
+        "acute": ("expected_bicarbonate_respiratory_alkalosis_acute",),
+        "chronic": ("expected_bicarbonate_respiratory_alkalosis_chronic",),
+        None: (
+            "expected_bicarbonate_respiratory_alkalosis_acute",
+            "expected_bicarbonate_respiratory_alkalosis_chronic",
+        ),
+    },
+}
+
+_EXPECTED_LABEL = {
+    "expected_pco2": "the expected pCO2 (Winters' formula)",
+    "expected_pco2_metabolic_alkalosis": "the expected pCO2 for a metabolic alkalosis",
+    "expected_bicarbonate_respiratory_acidosis_acute": "the expected HCO3 if acute",
+    "expected_bicarbonate_respiratory_acidosis_chronic": "the expected HCO3 if chronic",
+    "expected_bicarbonate_respiratory_alkalosis_acute": "the expected HCO3 if acute",
+    "expected_bicarbonate_respiratory_alkalosis_chronic": "the expected HCO3 if chronic",
+}
+
+
+def _expected_clause(c: Context, id: str) -> str | None:
+    f = c.finding(id)
+    if f is None:
+        return None
+    label = _EXPECTED_LABEL[id]
+    band = ph.band_of(f)
+    if ph.stated(f) and band is not None:
+        # The expected range is the number that matters here; the midpoint adds nothing.
+        if f.status is Status.caution:
+            c.said.update(ph.caveats(f, c.brief))
+        return f"{label} is {band}" + ph.caution_suffix(f, c.brief)
+    return c.clause(id, label, with_reading=False)
+
+
+def _evidence(ev: tuple[Evidence, ...], c: Context, limit: int | None = None) -> str:
+    picked = ev if limit is None else ev[:limit]
+    out = []
+    for e in picked:
+        text = ph.tidy(e.text)
+        if e.draw and e.draw != c.a.draw_label:
+            text += f' ("{e.draw}" draw)'
+        out.append(text)
+    return "; ".join(out)
+
+
+def _disorder_name(d: Disorder) -> str:
+    return f"{d.name} ({d.detail})" if d.detail else d.name
+
+
+def _gas_entered(c: Context) -> bool:
+    draw = c.draw
+    return draw is not None and {"ph", "pco2"} <= set(draw.blood_gas.measurements())
+
+
+def acid_base_section(c: Context) -> Section:
+    """Primary disorder, whether compensation is appropriate, and any added disorder."""
+    s = Section("acid_base", "Acid-base")
+    hh = c.finding("henderson_hasselbalch_ph")
+    if hh is not None and hh.status is Status.not_valid:
+        why = ph.caveats(hh, c.brief)
+        c.said.update(why)
+        s.sentences.append(
+            "The gas values do not agree with each other on the Henderson-Hasselbalch check"
+            + (f" ({'; '.join(why)})" if why else "")
+            + ", so the reading below is provisional until the sample is checked."
+        )
+    elif hh is not None and hh.status is Status.caution:
+        why = ph.caveats(hh, c.brief)
+        c.said.update(why)
+        s.sentences.append(
+            "The Henderson-Hasselbalch check shows a small mismatch"
+            + (f" ({'; '.join(why)})" if why else "")
+            + "."
+        )
+    elif hh is not None and hh.status is Status.ok and not c.brief:
+        s.sentences.append("The gas is internally consistent on the Henderson-Hasselbalch check.")
+    if not c.a.disorders:
+        if not _gas_entered(c):
+            s.sentences.append(
+                "No blood gas (pH and pCO2) was entered with this draw, so the primary disorder "
+                "and its compensation are not judged; a gas drawn with the chemistry is suggested."
+            )
+        else:
+            s.sentences.append("No acid-base disorder is identified from the values entered.")
+        return s
+    primary = [d for d in c.a.disorders if d.primary]
+    added = [d for d in c.a.disorders if not d.primary]
+    for d in primary:
+        text = f"{_disorder_name(d)} is the primary disorder"
+        if not c.brief and d.evidence:
+            text += f" ({_evidence(d.evidence, c)})"
+        s.sentences.append(ph.sentence(text))
+        s.sentences.extend(_compensation(c, d))
+    if added:
+        names = [_disorder_name(d) for d in added]
+        lead = "There is also " if primary else "Disorders found: "
+        if c.brief:
+            s.sentences.append(ph.sentence(lead + _and(names)))
+        else:
+            parts = [
+                f"{n} ({_evidence(d.evidence, c)})" if d.evidence else n
+                for n, d in zip(names, added, strict=True)
+            ]
+            s.sentences.append(ph.sentence(lead + _and(parts)))
+    elif primary:
+        s.sentences.append("No mixed disorder is identified.")
+    return s
+
+
+def _compensation(c: Context, d: Disorder) -> list[str]:
+    ids = COMPENSATION_INDEX.get(d.id, {})
+    chosen = ids.get(d.detail, ids.get(None, ()))
+    clauses = [x for x in (_expected_clause(c, i) for i in chosen) if x]
+    if d.compensation:
+        text = f"Compensation is {d.compensation}"
+        if clauses:
+            text += f": {ph.join_clauses(clauses)}"
+        return [ph.sentence(text)]
+    if clauses:
+        return [ph.sentence(ph.join_clauses(clauses))]
+    return []
+
+
+def _and(items: list[str]) -> str:
+    if len(items) <= 1:
+        return "".join(items)
+    return ", ".join(items[:-1]) + " and " + items[-1]
+
+
+# ---------------------------------------------------------------------------------------------
+# gaps
+
+
+def gaps_section(c: Context) -> Section:
+    """Anion gap, its albumin-corrected value, the delta ratio and (consult) the osmolal gap."""
+    s = Section("gaps", "Gaps")
+    parts = [c.clause("anion_gap", "the anion gap")]
+    corrected = c.finding("anion_gap_albumin_corrected")
+    if corrected is not None and (not c.brief or corrected.status is not Status.needs_input):
+        parts.append(c.clause("anion_gap_albumin_corrected", "the albumin-corrected gap"))
+    delta = c.finding("delta_ratio")
+    if delta is not None and delta.status is not Status.needs_input:
+        parts.append(c.clause("delta_ratio", "the delta ratio"))
+    osm = c.finding("serum_osmolal_gap")
+    if osm is not None and not c.brief and osm.status is not Status.needs_input:
+        parts.append(c.clause("serum_osmolal_gap", "the serum osmolal gap"))
+    parts = [p for p in parts if p]
+    if parts:
+        s.sentences.append(ph.sentence(ph.join_clauses(parts)))
+    return s
+
+
+# ---------------------------------------------------------------------------------------------
+# renal acid excretion
+
+_RENAL = (
+    ("urine_ph", "the urine pH"),
+    ("urine_anion_gap", "the urine anion gap"),
+    ("urine_osmolal_gap", "the urine osmolal gap"),
+    ("urine_ammonium_estimate", None),
+    ("urine_ammonium_creatinine_ratio", "the urine ammonium/creatinine ratio"),
+)
+
+
+def _ammonium_label(f: Finding) -> str:
+    if f.extra.get("measured"):
+        return "the measured urine ammonium"
+    return "the urine ammonium estimated from the osmolal gap"
+
+
+def renal_acid_section(c: Context) -> Section:
+    """Urine pH, the urine anion and osmolal gaps or measured ammonium, with their caveats."""
+    s = Section("renal_acid", "Renal acid excretion")
+    draw = c.draw
+    if draw is not None and not draw.urine.measurements():
+        s.sentences.append(
+            "Not assessed: no urine studies were entered with this draw; a spot urine for "
+            "sodium, potassium, chloride, pH, osmolality, urea, glucose and creatinine, taken "
+            "with the blood, is suggested."
+        )
+        return s
+    parts = []
+    for id, label in _RENAL:
+        f = c.finding(id)
+        if f is None:
+            continue
+        if c.brief and f.status is Status.needs_input:
+            continue
+        if c.brief and id == "urine_ammonium_estimate" and not f.extra.get("measured"):
+            continue  # the daily note keeps the osmolal gap it was estimated from
+        parts.append(c.clause(id, label or _ammonium_label(f)))
+    parts = [p for p in parts if p]
+    if parts:
+        s.sentences.append(ph.sentence(ph.join_clauses(parts)))
+    s.sentences.extend(_ammonium_summary(c))
+    return s
+
+
+def _ammonium_summary(c: Context) -> list[str]:
+    directions: dict[str, str] = {}
+    measured = False
+    for id, table in ph.AMMONIUM_DIRECTION.items():
+        f = c.finding(id)
+        if f is None or not ph.stated(f) or f.interpretation not in table:
+            continue
+        directions[id] = table[f.interpretation]
+        if id == "urine_ammonium_estimate" and f.extra.get("measured"):
+            measured = True
+    found = set(directions.values())
+    if len(found) > 1:
+        if measured:
+            return [
+                "These measures disagree about ammonium excretion; the measured urine ammonium "
+                "is the direct one."
+            ]
+        return [
+            "These measures disagree about ammonium excretion; a measured urine ammonium would "
+            "settle it."
+        ]
+    if len(found) == 1 and len(directions) > 1 and not c.brief:
+        return [f"Taken together, renal ammonium excretion appears {found.pop()}."]
+    return []
+
+
+# ---------------------------------------------------------------------------------------------
+# potassium
+
+_KALEMIA_WORD = {"hypo": "low", "normal": "normal", "hyper": "high"}
+
+# How a TTKG or urine K/creatinine reading reads against the serum potassium state.
+_K_READING = {
+    ("hypo", "low"): "appropriately low for the hypokalemia (renal conservation)",
+    ("hypo", "high"): "inappropriately high for the hypokalemia (renal potassium loss)",
+    ("hyper", "low"): "inappropriately low for the hyperkalemia (reduced aldosterone effect: "
+    "deficiency or resistance)",
+    ("hyper", "high"): "appropriately high for the hyperkalemia",
+}
+
+
+def _kalemia(c: Context) -> str | None:
+    for id in ("ttkg", "urine_potassium_creatinine_ratio"):
+        f = c.finding(id)
+        if f is not None and f.extra.get("kalemia") in _KALEMIA_WORD:
+            return str(f.extra["kalemia"])
+    k = _serum_potassium(c)
+    if k is None:
+        return None
+    settings = c.a.settings or DEFAULTS
+    if k < settings.potassium_low:
+        return "hypo"
+    if k > settings.potassium_high:
+        return "hyper"
+    return "normal"
+
+
+def _serum_potassium(c: Context) -> float | None:
+    draw = c.draw
+    return None if draw is None else draw.serum.canonical("potassium")
+
+
+def _k_clause(c: Context, id: str, label: str, kalemia: str | None) -> str | None:
+    f = c.finding(id)
+    if f is None or (c.brief and f.status is Status.needs_input):
+        return None
+    if not ph.stated(f):
+        return c.clause(id, label)
+    words = _K_READING.get((kalemia or "", f.interpretation or ""))
+    if words is None:
+        return c.clause(id, label)
+    if f.status is Status.caution:
+        c.said.update(ph.caveats(f, c.brief))
+    return f"{label} is {ph.value_of(f)}" + ph.caution_suffix(f, c.brief, words)
+
+
+def potassium_section(c: Context) -> Section:
+    """Serum potassium and the kidney's potassium handling (TTKG, urine K/creatinine)."""
+    s = Section("potassium", "Potassium")
+    draw = c.draw
+    kalemia = _kalemia(c)
+    m = None if draw is None else draw.serum.measurements().get("potassium")
+    if m is None:
+        s.sentences.append("Serum potassium is not available.")
+    else:
+        s.sentences.append(
+            f"Serum potassium {written_number(Panel.serum, 'potassium', m)} {m.unit} is "
+            f"{_KALEMIA_WORD[kalemia or 'normal']}."
+        )
+    parts = [
+        _k_clause(c, "ttkg", "the TTKG", kalemia),
+        _k_clause(c, "urine_potassium_creatinine_ratio", "the urine K/creatinine ratio", kalemia),
+    ]
+    parts = [p for p in parts if p]
+    if parts:
+        s.sentences.append(ph.sentence(ph.join_clauses(parts)))
+    return s
+
+
+# ---------------------------------------------------------------------------------------------
+# causes
+
+_VERDICT_WORD = {
+    Verdict.likely: "likely",
+    Verdict.possible: "possible",
+    Verdict.unlikely: "unlikely",
+}
+
+
+def causes_section(c: Context) -> Section:
+    """The ranked causes of a normal-gap acidosis, with the evidence for and against."""
+    s = Section("causes", "Causes")
+    for note in c.a.ranking_notes:
+        s.sentences.append(ph.sentence(ph.tidy(note)))
+    calls = c.a.patterns
+    if not calls:
+        if not c.a.ranking_notes:
+            s.sentences.append("No cause of a normal-gap acidosis was ranked.")
+        return s
+    if c.brief:
+        s.sentences.extend(_causes_brief(c, calls))
+    else:
+        s.sentences.extend(_causes_full(c, calls))
+    return s
+
+
+def _causes_brief(c: Context, calls: list[PatternCall]) -> list[str]:
+    out = []
+    top = calls[0]
+    if top.verdict is not Verdict.unlikely:
+        text = f"{top.name} is {_VERDICT_WORD[top.verdict]}"
+        if top.support:
+            text += f" (for: {_evidence(top.support, c, 2)})"
+        if top.against:
+            text += f" (against: {_evidence(top.against, c, 1)})"
+        out.append(ph.sentence(text))
+        rest = calls[1:]
+    else:
+        rest = calls
+    possible = [p.name for p in rest if p.verdict is not Verdict.unlikely]
+    unlikely = [p.name for p in rest if p.verdict is Verdict.unlikely]
+    if possible:
+        out.append(ph.sentence("Also possible: " + ", ".join(possible)))
+    if unlikely:
+        out.append(ph.sentence("Unlikely: " + ", ".join(unlikely)))
+    return out
+
+
+def _causes_full(c: Context, calls: list[PatternCall]) -> list[str]:
+    out = []
+    first = True
+    for p in calls:
+        if p.verdict is Verdict.unlikely:
+            continue
+        lead = "the leading consideration" if first else _VERDICT_WORD[p.verdict]
+        text = f"{p.name} is {lead}" + (f" ({_VERDICT_WORD[p.verdict]})" if first else "")
+        first = False
+        out.append(ph.sentence(text))
+        if p.support:
+            out.append(ph.sentence("In favour: " + _evidence(p.support, c)))
+        if p.against:
+            out.append(ph.sentence("Against: " + _evidence(p.against, c)))
+        if p.missing:
+            out.append(ph.sentence("Not yet known: " + ", ".join(ph.tidy(m) for m in p.missing)))
+    unlikely = [p for p in calls if p.verdict is Verdict.unlikely]
+    if unlikely:
+        parts = [
+            f"{p.name} ({_evidence(p.against, c, 1)})" if p.against else p.name for p in unlikely
+        ]
+        out.append(ph.sentence("Considered unlikely: " + "; ".join(parts)))
+    return out
+
+
+# ---------------------------------------------------------------------------------------------
+# next tests, caveats, caution
+
+
+def next_tests_section(c: Context) -> Section:
+    """The suggested tests, most useful first (the first three in a daily note)."""
+    s = Section("next_tests", "Suggested next")
+    tests = c.a.next_tests[:3] if c.brief else c.a.next_tests
+    if c.brief:
+        if tests:
+            s.sentences.append(ph.sentence("; ".join(ph.tidy(t.text) for t in tests)))
+        return s
+    for t in tests:
+        s.items.append(f"{ph.tidy(t.text)}: {ph.tidy(t.why)}." if t.why else ph.sentence(t.text))
+    return s
+
+
+def caveats_section(c: Context) -> Section:
+    """Case-specific cautions (entered values, gas sample) not already stated above."""
+    s = Section("caveats", "Caveats")
+    standing = set(CAUTION_LINES)
+    for text in c.a.cautions:
+        if text in standing or ph.tidy(text) in c.said:
+            continue
+        s.sentences.append(ph.sentence(ph.tidy(text)))
+    return s
+
+
+def caution_section(c: Context) -> Section:
+    """The standing caution that closes every note."""
+    return Section("caution", "Caution", [CAUTION_TEXT])
+
+
+BUILDERS = (
+    values_section,
+    acid_base_section,
+    gaps_section,
+    renal_acid_section,
+    potassium_section,
+    causes_section,
+    next_tests_section,
+    caveats_section,
+    caution_section,
+)
+
+
+def build(a: Assessment, case: Case, brief: bool) -> list[Section]:
+    """Every non-empty section of the note, in reading order; the caution always last."""
+    c = Context(a, case, brief)
+    if a.draw_label is None:
+        return [values_section(c), causes_section(c), caution_section(c)]
+    sections = [b(c) for b in BUILDERS]
+    return [x for x in sections if x.sentences or x.items]
