@@ -114,6 +114,81 @@ class Settings(BaseModel):
     delta_min_bicarbonate_fall: float = Field(4.0, json_schema_extra={"unit": "mmol/L"})
     """The delta ratio is not read when bicarbonate has fallen less than this (common practice)."""
 
+    # --- added with the calculators of workup/indices ---
+    pco2_low: float = Field(35.0, json_schema_extra={"unit": "mmHg"})
+    """Lower limit of normal arterial pCO2; below it a respiratory alkalosis is considered (common
+    practice)."""
+    pco2_high: float = Field(45.0, json_schema_extra={"unit": "mmHg"})
+    """Upper limit of normal arterial pCO2; above it a respiratory acidosis is considered (common
+    practice)."""
+    hh_h_tolerance_fraction: float = Field(0.10, json_schema_extra={"unit": "fraction"})
+    """Largest acceptable relative gap between the [H+] from 24 × pCO2/HCO3 (Kassirer & Bleich,
+    NEJM 1965, from memory) and the measured [H+] (common practice: about 10%)."""
+    winters_band: float = Field(2.0, json_schema_extra={"unit": "mmHg"})
+    """Half-width of the expected pCO2 band of Winters' formula, 1.5 × HCO3 + 8 ± 2 (Albert, Dell
+    & Winters, Ann Intern Med 1967, from memory)."""
+    compensation_pco2_floor: float = Field(10.0, json_schema_extra={"unit": "mmHg"})
+    """Respiratory compensation of a metabolic acidosis rarely takes pCO2 below this (common
+    practice; sources give 10–15)."""
+    metabolic_alkalosis_pco2_band: float = Field(5.0, json_schema_extra={"unit": "mmHg"})
+    """Half-width of the expected pCO2 band in metabolic alkalosis, 40 + 0.7 × ΔHCO3 (common
+    practice ±2–5; Berend, de Vries & Gans, NEJM 2014 use ±2)."""
+    metabolic_alkalosis_pco2_ceiling: float = Field(55.0, json_schema_extra={"unit": "mmHg"})
+    """Respiratory compensation of a metabolic alkalosis rarely takes pCO2 above this (common
+    practice; sources give 55–60)."""
+    respiratory_bicarbonate_band: float = Field(2.0, json_schema_extra={"unit": "mmol/L"})
+    """Half-width of the expected bicarbonate band of the respiratory compensation rules (common
+    practice; the ±2 bands of Berend, de Vries & Gans, NEJM 2014)."""
+    acute_respiratory_acidosis_bicarbonate_max: float = Field(
+        32.0, json_schema_extra={"unit": "mmol/L"}
+    )
+    """Acute respiratory acidosis rarely raises bicarbonate above this (common practice 30–32; one
+    published table gives 38)."""
+    chronic_respiratory_acidosis_bicarbonate_max: float = Field(
+        45.0, json_schema_extra={"unit": "mmol/L"}
+    )
+    """Chronic respiratory acidosis rarely raises bicarbonate above this (common practice)."""
+    acute_respiratory_alkalosis_bicarbonate_min: float = Field(
+        18.0, json_schema_extra={"unit": "mmol/L"}
+    )
+    """Acute respiratory alkalosis rarely lowers bicarbonate below this (common practice)."""
+    chronic_respiratory_alkalosis_bicarbonate_min: float = Field(
+        12.0, json_schema_extra={"unit": "mmol/L"}
+    )
+    """Chronic respiratory alkalosis rarely lowers bicarbonate below this (common practice 12–15)."""
+    delta_ratio_normal_gap_below: float = Field(0.4, json_schema_extra={"unit": "ratio"})
+    """A delta ratio below this is a pure normal-gap acidosis (Brandis, Acid-Base Physiology)."""
+    delta_ratio_mixed_below: float = Field(0.8, json_schema_extra={"unit": "ratio"})
+    """A delta ratio from 0.4 up to this is a mixed high- and normal-gap acidosis (Brandis,
+    Acid-Base Physiology; some use 1)."""
+    delta_ratio_alkalosis_above: float = Field(2.0, json_schema_extra={"unit": "ratio"})
+    """A delta ratio above this is a high-gap acidosis with a metabolic alkalosis or a compensated
+    respiratory acidosis (Brandis, Acid-Base Physiology)."""
+    ethanol_osmolal_factor: float = Field(1.25, json_schema_extra={"unit": "per mmol/L"})
+    """Multiplier of ethanol (mmol/L) in the calculated serum osmolality (Purssell's factor, as
+    tabulated by Lynd et al., BMC Emerg Med 2008)."""
+    uag_urine_ph_invalid_above: float = Field(7.0, json_schema_extra={"unit": "pH"})
+    """Above this urine pH a positive urine anion gap is not read: with a urine pCO2 near 40 mmHg
+    the urine carries about 10 mmol/L of bicarbonate at pH 7.0 and more above it (arithmetic from
+    Henderson–Hasselbalch, not published; between urine_ph_bicarbonaturia and this, a caution)."""
+    urine_ammonium_low_below: float = Field(50.0, json_schema_extra={"unit": "mmol/L"})
+    """During acidosis a urine ammonium below this is low (half the urine osmolal gap of 100,
+    Kamel et al., AJKD 1997)."""
+    urine_ammonium_adequate_above: float = Field(75.0, json_schema_extra={"unit": "mmol/L"})
+    """During acidosis a urine ammonium above this is adequate (derived: half the urine osmolal
+    gap cut-off of 150, Berend et al., Kidney Dis 2017; arithmetic, not published)."""
+    acidification_test_ph_max: float = Field(5.3, json_schema_extra={"unit": "pH"})
+    """During a furosemide–fludrocortisone or ammonium chloride test, any urine pH below this is
+    normal acidification (from memory: Walsh et al., Kidney Int 2007; Wrong & Davies, QJM 1959)."""
+    glucosuria_serum_glucose_above: float = Field(10.0, json_schema_extra={"unit": "mmol/L"})
+    """Above this plasma glucose, glucose spills into urine and must be measured for the urine
+    osmolal gap (common practice: renal threshold about 180 mg/dL)."""
+    ub_pco2_urine_bicarbonate_min: float = Field(80.0, json_schema_extra={"unit": "mmol/L"})
+    """The urine-minus-blood pCO2 needs a urine bicarbonate of at least about this (from memory:
+    80–100 mmol/L)."""
+    uric_acid_low: float = Field(120.0, json_schema_extra={"unit": "umol/L"})
+    """Plasma urate below this is hypouricemia (common practice, about 2 mg/dL; from memory)."""
+
 
 DEFAULTS = Settings()
 

@@ -11,14 +11,36 @@ from __future__ import annotations
 from collections.abc import Callable
 
 from workup.findings import Finding
-from workup.indices import serum_gaps
+from workup.indices import gas, kidney, potassium, serum_gaps, tubular, urine_acid
 from workup.inputs import DrawInputs
 
 Calculator = Callable[[DrawInputs], Finding]
 
 REGISTRY: tuple[Calculator, ...] = (
+    gas.henderson_hasselbalch_ph,
     serum_gaps.anion_gap,
     serum_gaps.anion_gap_albumin_corrected,
+    serum_gaps.delta_ratio,
+    gas.expected_pco2,
+    gas.expected_pco2_metabolic_alkalosis,
+    gas.expected_bicarbonate_respiratory_acidosis_acute,
+    gas.expected_bicarbonate_respiratory_acidosis_chronic,
+    gas.expected_bicarbonate_respiratory_alkalosis_acute,
+    gas.expected_bicarbonate_respiratory_alkalosis_chronic,
+    serum_gaps.serum_osmolal_gap,
+    urine_acid.urine_ph,
+    urine_acid.urine_anion_gap,
+    urine_acid.urine_osmolal_gap,
+    urine_acid.urine_ammonium_estimate,
+    urine_acid.urine_ammonium_creatinine_ratio,
+    potassium.ttkg,
+    potassium.urine_potassium_creatinine_ratio,
+    tubular.fe_bicarbonate,
+    tubular.urine_blood_pco2,
+    tubular.fe_phosphate,
+    tubular.tmp_gfr,
+    tubular.fe_urate,
+    kidney.egfr,
 )
 
 
