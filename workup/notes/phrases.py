@@ -82,6 +82,8 @@ def reading(f: Finding) -> str | None:
     """The interpretation of ``f`` in words, or None when it has none."""
     if f.interpretation is None:
         return None
+    if f.id == "egfr":
+        return f"KDIGO category {f.interpretation}"
     return READING.get(f.id, {}).get(f.interpretation, f.interpretation.replace("_", " "))
 
 
@@ -90,7 +92,8 @@ def input_words(label: str) -> str:
     panel, _, key = label.partition(".")
     if panel in _PANEL_WORDS and key:
         a = CATALOGUE[Panel(panel)].get(key)
-        name = a.name if a is not None else key.replace("_", " ")
+        # "osmolality (measured)" reads as plain "osmolality" inside a parenthesis of its own.
+        name = a.name.split(" (")[0] if a is not None else key.replace("_", " ")
         return f"{_PANEL_WORDS[panel]} {name}"
     return label.replace("_", " ").replace(".", " ")
 
