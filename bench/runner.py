@@ -1,0 +1,409 @@
+"""``make bench``: every figure, its baseline from the same run, one table and a JSON file.
+
+Sections run in turn (terminal, recompute, library, memory). A section that cannot run yet (a
+piece of the app not built, a failure) yields rows marked "not measured" with the reason, so the
+table never silently drops a figure.
+"""
+
+from __future__ import annotations
+
+import importlib.util
+import json
+import subprocess
+import sys
+import tempfile
+import time
+from collections.abc import Callable
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from bench import machine, pty_bench
+from bench.stats import paired_ratios, summarize
+from bench.table import Row, Target, render
+
+ROOT = Path(__file__).resolve().parent.parent
+RESULTS = ROOT / "bench" / "results" / "latest.json"
+DEMO_CASES = ROOT / "cases"
+CASE_FILE = "distal-rta-classic.yaml"
+"""The demo case opened for the terminal figures (two draws, every panel filled)."""
+APP_KEYS: list[str] = []
+"""Keys pressed after the first screen settles to reach the entry field (none: it has focus)."""
+LIBRARY_SIZES = (1000, 10000)
+MEMORY_LIBRARY = 10000
+
+
+@dataclass(frozen=True)
+class Plan:
+    """How many repetitions each section makes."""
+
+    pairs: int
+    """Alternating app/baseline pairs in the pty."""
+    sweeps: int
+    """Recompute sweeps over all demo cases."""
+    library_reps: int
+    """Repetitions of the library listing benchmark (a fresh process each)."""
+    memory_reps: int
+    """App starts on the 10,000-case library (the first one with a cold index)."""
+    idle_window: float
+    """Seconds of idle output measured per run."""
+
+
+FULL = Plan(pairs=8, sweeps=300, library_reps=3, memory_reps=3, idle_window=2.0)
+QUICK = Plan(pairs=3, sweeps=60, library_reps=1, memory_reps=2, idle_window=1.0)
+
+_KEY_BYTES = {"tab": b"\t", "enter": b"\r", "escape": b"\x1b", "down": b"\x1b[B", "up": b"\x1b[A"}
+
+
+def key_bytes(key: str) -> bytes:
+    """What a terminal sends for ``key`` (a Textual key name or a single character)."""
+    if key in _KEY_BYTES:
+        return _KEY_BYTES[key]
+    if key.startswith("ctrl+") and len(key) == 6:
+        return bytes([ord(key[-1].lower()) - 96])
+    if len(key) == 1:
+        return key.encode()
+    raise ValueError(f"no terminal bytes known for key {key!r}")
+
+
+def missing_rows(figures: list[tuple[str, str]], reason: str) -> list[Row]:
+    """Rows for figures that could not be measured, all giving ``reason``."""
+    return [Row(figure, unit, note=f"not measured: {reason}") for figure, unit in figures]
+
+
+def guarded(
+    name: str, figures: list[tuple[str, str]], fn: Callable[[], list[Row]], log: Callable[..., None]
+) -> list[Row]:
+    """Run one section; on failure, its figures become "not measured" rows with the reason."""
+    log(f"[bench] {name} ...")
+    t0 = time.perf_counter()
+    try:
+        rows = fn()
+    except Exception as exc:
+        reason = f"{type(exc).__name__}: {exc}".strip()
+        log(f"[bench] {name} failed: {reason}")
+        rows = missing_rows(figures, reason[:200])
+    log(f"[bench] {name} done in {time.perf_counter() - t0:.1f} s")
+    return rows
+
+
+# ---------------------------------------------------------------- terminal: startup, bytes, RSS
+
+TERMINAL_FIGURES = [
+    ("Start to settled first screen, `workup CASE.yaml`", "s"),
+    ("Start to first full frame", "s"),
+    ("Bytes written for the first screen", "bytes"),
+    ("Bytes written for one digit typed into a field", "bytes"),
+    ("Idle output with the case open", "B/s"),
+    ("Peak memory (max RSS), one case open", "MiB"),
+]
+
+
+def _paired_row(
+    figure: str,
+    unit: str,
+    app: list[float],
+    base: list[float],
+    baseline_name: str,
+    target: Target | None = None,
+    note: str = "",
+) -> Row:
+    ratio = summarize(paired_ratios(app, base)) if all(b > 0 for b in base) else None
+    return Row(
+        figure,
+        unit,
+        value=summarize(app),
+        baseline=summarize(base),
+        baseline_name=baseline_name,
+        ratio=ratio,
+        target=target,
+        note=note,
+        extra={"samples": app, "baseline_samples": base},
+    )
+
+
+def terminal_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
+    """Startup, first-screen bytes, keystroke bytes, idle bytes and RSS against the bare form."""
+    if importlib.util.find_spec("screens.app") is None:
+        raise RuntimeError("screens/app.py (build_app) is not in the tree yet")
+    env = pty_bench.bench_env(work / "home")
+    cases = pty_bench.copy_cases(DEMO_CASES, work / "cases")
+    case = cases / CASE_FILE
+    app_probe = pty_bench.probe(["app", str(cases), str(case), "--keys", ",".join(APP_KEYS)], env)
+    zero = pty_bench.probe(["baseline", "0"], env)["widgets"]
+    one = pty_bench.probe(["baseline", "1"], env)["widgets"]
+    form_rows = pty_bench.rows_for(app_probe["widgets"], zero, one - zero)
+    form_widgets = zero + (one - zero) * form_rows
+    log(
+        f"[bench] app first screen: {app_probe}; bare form: {form_rows} rows, {form_widgets} widgets"
+    )
+    app_argv = pty_bench.workup_argv("--cases", str(cases), str(case))
+    base_argv = pty_bench.baseline_argv(form_rows)
+    app, base = pty_bench.paired_runs(
+        app_argv,
+        base_argv,
+        env,
+        work,
+        plan.pairs,
+        app_keys=[key_bytes(k) for k in APP_KEYS],
+        idle_window=plan.idle_window,
+    )
+    name = f"bare form, {form_widgets} widgets"
+    size_note = (
+        f"The app's first screen has {app_probe['widgets']} widgets ({app_probe['screen']}); "
+        f"the bare form has {form_widgets}."
+    )
+    key_note = ""
+    if not app_probe["focus_is_input"] or not app_probe["digit_changed"]:
+        key_note = (
+            "The digit did not reach an input field in the headless check (focus: "
+            f"{app_probe['focus_before_digit']}); the bytes are for whatever the key did."
+        )
+    rows = [
+        _paired_row(
+            TERMINAL_FIGURES[0][0],
+            "s",
+            [r.settled_s for r in app],
+            [r.settled_s for r in base],
+            name,
+            Target("ratio", "<=", 1.3),
+            note=size_note,
+        ),
+        _paired_row(
+            TERMINAL_FIGURES[1][0],
+            "s",
+            [r.first_frame_s for r in app],
+            [r.first_frame_s for r in base],
+            name,
+        ),
+        _paired_row(
+            TERMINAL_FIGURES[2][0],
+            "bytes",
+            [float(r.first_screen_bytes) for r in app],
+            [float(r.first_screen_bytes) for r in base],
+            name,
+        ),
+        _paired_row(
+            TERMINAL_FIGURES[3][0],
+            "bytes",
+            [float(r.key_bytes or 0) for r in app],
+            [float(r.key_bytes or 0) for r in base],
+            name,
+            note=key_note,
+        ),
+        _paired_row(
+            TERMINAL_FIGURES[4][0],
+            "B/s",
+            [r.idle_bytes_per_s for r in app],
+            [r.idle_bytes_per_s for r in base],
+            name,
+        ),
+        _paired_row(
+            TERMINAL_FIGURES[5][0],
+            "MiB",
+            [r.max_rss_mib for r in app],
+            [r.max_rss_mib for r in base],
+            name,
+        ),
+    ]
+    rows[0].extra["probe"] = app_probe
+    return rows
+
+
+# ---------------------------------------------------------------- recompute
+
+RECOMPUTE_FIGURES = [
+    ("Recompute one case after one edit (edit + assess)", "ms"),
+    ("Recompute every demo case, one edit each", "ms"),
+]
+
+
+def recompute_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
+    """Median and p99 of edit + assess, per case and per sweep of all demo cases."""
+    from bench import recompute
+
+    r = recompute.run(DEMO_CASES, sweeps=plan.sweeps)
+    if not r.per_case_ms:
+        raise RuntimeError("no demo case could be edited and assessed: " + "; ".join(r.skipped))
+    note = f"{r.cases} demo cases, {plan.sweeps} sweeps, pooled."
+    if r.skipped:
+        note += " Skipped: " + "; ".join(r.skipped)
+    return [
+        Row(
+            RECOMPUTE_FIGURES[0][0],
+            "ms",
+            value=summarize(r.per_case_ms),
+            target=Target("value", "<", 2.0),
+            note=note,
+        ),
+        Row(RECOMPUTE_FIGURES[1][0], "ms", value=summarize(r.sweep_ms)),
+    ]
+
+
+# ---------------------------------------------------------------- library listing
+
+
+def library_figures(sizes: tuple[int, ...]) -> list[tuple[str, str]]:
+    """The figure names of the library section."""
+    out = []
+    for n in sizes:
+        out += [
+            (f"Library listing, {n:,} cases, cold index", "s"),
+            (f"Library listing, {n:,} cases, warm index", "s"),
+            (f"Library listing, {n:,} cases, after one file edited", "s"),
+        ]
+    return out
+
+
+def library_samples(sizes: tuple[int, ...], reps: int) -> list[dict[str, Any]]:
+    """Rows of bench/library_bench.py, each repetition in a fresh process."""
+    out: list[dict[str, Any]] = []
+    for _ in range(reps):
+        done = subprocess.run(
+            [sys.executable, "-m", "bench.library_bench", *map(str, sizes)],
+            capture_output=True,
+            text=True,
+            cwd=str(ROOT),
+            check=False,
+        )
+        if done.returncode != 0:
+            tail = (done.stderr.strip().splitlines() or ["no output"])[-1]
+            raise RuntimeError(f"bench.library_bench failed: {tail}")
+        out += [json.loads(line) for line in done.stdout.splitlines() if line.startswith("{")]
+    return out
+
+
+def library_rows_from(samples: list[dict[str, Any]], sizes: tuple[int, ...]) -> list[Row]:
+    """Summarise library_bench rows per size into cold, warm and one-edit rows."""
+    rows = []
+    for n in sizes:
+        mine = [s for s in samples if s.get("files") == n]
+        if not mine:
+            rows += missing_rows(library_figures((n,)), f"no result for {n} files")
+            continue
+        parse = [float(s["yaml_parse_s"]) for s in mine]
+        ok = min(int(s.get("cases_ok", n)) for s in mine)
+        note = "" if ok == n else f"only {ok} of {n:,} generated cases were read as valid."
+        base = "CSafeLoader parse of the same files"
+        figs = library_figures((n,))
+        rows.append(
+            _paired_row(
+                figs[0][0],
+                "s",
+                [float(s["cold_s"]) for s in mine],
+                parse,
+                base,
+                Target("ratio", "<=", 1.5),
+                note=note,
+            )
+        )
+        rows.append(
+            _paired_row(
+                figs[1][0],
+                "s",
+                [float(s["warm_s"]) for s in mine],
+                parse,
+                base,
+                Target("value", "<", 0.5),
+            )
+        )
+        rows.append(
+            _paired_row(
+                figs[2][0],
+                "s",
+                [float(s["one_changed_s"]) for s in mine],
+                parse,
+                base,
+                Target("value", "<", 1.0),
+            )
+        )
+    return rows
+
+
+def library_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
+    """Cold, warm and one-edit listing against the YAML parse, from bench/library_bench.py."""
+    if importlib.util.find_spec("workup.library") is None:
+        raise RuntimeError("workup/library.py is not in the tree yet")
+    return library_rows_from(library_samples(LIBRARY_SIZES, plan.library_reps), LIBRARY_SIZES)
+
+
+# ---------------------------------------------------------------- memory with a large library
+
+MEMORY_FIGURES = [
+    (f"Peak memory (max RSS), library of {MEMORY_LIBRARY:,} cases open", "MiB"),
+    (f"Start to settled library screen, {MEMORY_LIBRARY:,} cases, cold index", "s"),
+    (f"Start to settled library screen, {MEMORY_LIBRARY:,} cases, warm index", "s"),
+]
+
+
+def memory_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
+    """Peak RSS of ``workup --cases DIR`` on a generated 10,000-case library, cold then warm."""
+    if importlib.util.find_spec("screens.app") is None:
+        raise RuntimeError("screens/app.py (build_app) is not in the tree yet")
+    from bench.library_bench import generate_library
+
+    env = pty_bench.bench_env(work / "home-library")
+    folder = work / "library"
+    generate_library(folder, MEMORY_LIBRARY)
+    runs = [pty_bench.library_run(folder, env, work) for _ in range(plan.memory_reps)]
+    rss = [r.max_rss_mib for r in runs]
+    rows = [
+        Row(
+            MEMORY_FIGURES[0][0],
+            "MiB",
+            value=summarize(rss),
+            target=Target("value", "<", 150.0, statistic="high"),
+            note="Judged on the largest run (peak memory is a worst case); the first run builds "
+            "the index from nothing.",
+            extra={"samples": rss},
+        ),
+        Row(MEMORY_FIGURES[1][0], "s", value=summarize([runs[0].settled_s])),
+    ]
+    warm = [r.settled_s for r in runs[1:]]
+    rows.append(
+        Row(MEMORY_FIGURES[2][0], "s", value=summarize(warm), extra={"samples": warm})
+        if warm
+        else missing_rows([MEMORY_FIGURES[2]], "one run only")[0]
+    )
+    return rows
+
+
+# ---------------------------------------------------------------- the whole run
+
+SECTIONS = {
+    "terminal": (TERMINAL_FIGURES, terminal_rows),
+    "recompute": (RECOMPUTE_FIGURES, recompute_rows),
+    "library": (library_figures(LIBRARY_SIZES), library_rows),
+    "memory": (MEMORY_FIGURES, memory_rows),
+}
+
+
+def run(
+    plan: Plan, only: list[str] | None = None, log: Callable[..., None] = print
+) -> dict[str, Any]:
+    """Run the chosen sections (all by default) and return the results document."""
+    started = time.perf_counter()
+    info = machine.info()
+    rows: list[Row] = []
+    with tempfile.TemporaryDirectory(prefix="workup-bench-") as tmp:
+        for name, (figures, fn) in SECTIONS.items():
+            if only and name not in only:
+                continue
+            work = Path(tmp) / name
+            work.mkdir()
+            rows += guarded(name, figures, lambda fn=fn, work=work: fn(plan, work, log), log)
+    info["load_after"] = machine.load_average()
+    info["run_seconds"] = round(time.perf_counter() - started, 1)
+    return {
+        "machine": info,
+        "plan": plan.__dict__,
+        "rows": [r.to_json() for r in rows],
+        "table": render(rows),
+    }
+
+
+def write_results(doc: dict[str, Any], path: Path = RESULTS) -> Path:
+    """Write the results document as JSON."""
+    path.parent.mkdir(parents=True, exist_ok=True)
+    path.write_text(json.dumps(doc, indent=2, ensure_ascii=False) + "\n", encoding="utf-8")
+    return path

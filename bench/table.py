@@ -1,0 +1,158 @@
+"""Result rows, their pass/fail verdict against a target, and the one table ``make bench`` prints.
+
+A row holds a figure's summary, the baseline measured in the same run (if any), the pair-by-pair
+ratio, and a target; the verdict is computed here, never written by hand.
+"""
+
+from __future__ import annotations
+
+import operator
+from collections.abc import Callable, Sequence
+from dataclasses import dataclass, field
+from typing import Any, Literal
+
+from bench.stats import Summary
+
+Statistic = Literal["median", "p99", "high"]
+_COMPARE: dict[str, Callable[[float, float], bool]] = {
+    "<": operator.lt,
+    "<=": operator.le,
+}
+
+
+@dataclass(frozen=True, slots=True)
+class Target:
+    """A goal for one statistic of a row: e.g. the median ratio at most 1.3."""
+
+    of: Literal["value", "ratio"]
+    """Whether the goal is on the measured value or on the ratio to the baseline."""
+    op: Literal["<", "<="]
+    """The comparison the statistic must satisfy."""
+    limit: float
+    """The bound."""
+    statistic: Statistic = "median"
+    """Which statistic is judged: the median, the 99th percentile or the largest value."""
+
+    def text(self, unit: str) -> str:
+        """How the target reads in the table, e.g. "median ratio ≤ 1.3"."""
+        op = {"<": "<", "<=": "≤"}[self.op]
+        stat = {"median": "median", "p99": "p99", "high": "max"}[self.statistic]
+        if self.of == "ratio":
+            return f"{stat} ratio {op} {self.limit:g}"
+        return f"{stat} {op} {self.limit:g} {unit}".rstrip()
+
+
+@dataclass
+class Row:
+    """One line of the benchmark table."""
+
+    figure: str
+    """What was measured, in words."""
+    unit: str
+    """Unit of the values ("s", "ms", "MiB", "bytes", "B/s")."""
+    value: Summary | None = None
+    """The measured values (None when the figure could not be measured)."""
+    baseline: Summary | None = None
+    """The baseline measured side by side, if the figure has one."""
+    baseline_name: str = ""
+    """What the baseline is."""
+    ratio: Summary | None = None
+    """Pair-by-pair ratios value/baseline."""
+    target: Target | None = None
+    """The goal, if the figure has one."""
+    note: str = ""
+    """Why a figure is missing, or what to keep in mind reading it."""
+    extra: dict[str, Any] = field(default_factory=dict)
+    """Raw samples and details, kept in the JSON file only."""
+
+    @property
+    def verdict(self) -> str:
+        """ "pass", "FAIL", "n/a" (not measured) or "" (no target)."""
+        if self.target is None:
+            return "" if self.value is not None else "n/a"
+        summary = self.ratio if self.target.of == "ratio" else self.value
+        if summary is None:
+            return "n/a"
+        x = getattr(summary, self.target.statistic)
+        return "pass" if _COMPARE[self.target.op](x, self.target.limit) else "FAIL"
+
+    def to_json(self) -> dict[str, Any]:
+        """A plain dict for bench/results/latest.json."""
+        return {
+            "figure": self.figure,
+            "unit": self.unit,
+            "value": self.value.to_json() if self.value else None,
+            "baseline": self.baseline.to_json() if self.baseline else None,
+            "baseline_name": self.baseline_name,
+            "ratio": self.ratio.to_json() if self.ratio else None,
+            "target": self.target.text(self.unit) if self.target else None,
+            "verdict": self.verdict,
+            "note": self.note,
+            "extra": self.extra,
+        }
+
+
+def _num(x: float) -> str:
+    """A number with about three significant figures, no exponent for everyday sizes."""
+    if x == 0:
+        return "0"
+    ax = abs(x)
+    if ax >= 100:
+        return f"{x:.0f}"
+    if ax >= 10:
+        return f"{x:.1f}"
+    if ax >= 1:
+        return f"{x:.2f}"
+    if ax >= 0.01:
+        return f"{x:.3f}"
+    return f"{x:.2g}"
+
+
+def spread(s: Summary) -> str:
+    """The spread of a summary: the IQR from 4 measurements up, else the range; with n."""
+    if s.n >= 4:
+        return f"IQR {_num(s.q1)}–{_num(s.q3)}, n={s.n}"
+    if s.n == 1:
+        return "n=1"
+    return f"range {_num(s.low)}–{_num(s.high)}, n={s.n}"
+
+
+def cells(row: Row) -> list[str]:
+    """The table cells of ``row``."""
+    if row.value is None:
+        value = "not measured"
+    else:
+        value = f"{_num(row.value.median)} {row.unit} ({spread(row.value)})"
+        if row.target is not None and row.target.statistic != "median":
+            stat = getattr(row.value, row.target.statistic)
+            label = {"p99": "p99", "high": "max"}[row.target.statistic]
+            value += f"; {label} {_num(stat)}"
+    base = f"{_num(row.baseline.median)} {row.unit}" if row.baseline else ""
+    if row.baseline_name and base:
+        base += f" ({row.baseline_name})"
+    ratio = f"{_num(row.ratio.median)}× ({spread(row.ratio)})" if row.ratio else ""
+    target = row.target.text(row.unit) if row.target else ""
+    return [row.figure, value, base, ratio, target, row.verdict]
+
+
+HEADER = ["Figure", "Median (spread)", "Baseline, same run", "Ratio, pair by pair", "Target", ""]
+
+
+def render(rows: Sequence[Row]) -> str:
+    """The rows as a Markdown table (readable as plain text too), notes listed underneath."""
+    lines = [
+        "| " + " | ".join(HEADER) + " |",
+        "|" + "|".join("---" for _ in HEADER) + "|",
+    ]
+    notes: list[str] = []
+    for row in rows:
+        cell = cells(row)
+        if row.note:
+            if row.note not in notes:  # one note shared by several rows is listed once
+                notes.append(row.note)
+            cell[0] += f" [{notes.index(row.note) + 1}]"
+        lines.append("| " + " | ".join(c.replace("|", "/") for c in cell) + " |")
+    if notes:
+        lines.append("")
+        lines.extend(f"[{i}] {n}" for i, n in enumerate(notes, 1))
+    return "\n".join(lines)

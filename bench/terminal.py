@@ -1,0 +1,262 @@
+"""Driving a program in a real pseudo-terminal and timing what it writes, as an SSH user sees it.
+
+The parent plays the terminal: it sets the window size, answers the one query that tells us where
+frames begin and end, records every chunk the program writes with its arrival time, sends keys and
+collects the child's resource usage when it exits. The pure parts (when is the screen "settled",
+how many bytes fell in a window) are separate functions so they can be tested without a pty.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import errno
+import fcntl
+import os
+import pty
+import select
+import signal
+import struct
+import termios
+import time
+from collections.abc import Mapping, Sequence
+from dataclasses import dataclass, field
+
+ALT_SCREEN_ON = b"\x1b[?1049h"
+"""Sent by a full-screen program before its first frame."""
+SYNC_QUERY = b"\x1b[?2026$p"
+"""DECRQM query for synchronized output (mode 2026)."""
+SYNC_REPLY = b"\x1b[?2026;2$y"
+"""Our answer: supported and currently reset, as most current terminal emulators answer."""
+SYNC_END = b"\x1b[?2026l"
+"""End of one synchronized frame; with the reply above, each repaint ends with this."""
+CTRL_Q = b"\x11"
+"""Ctrl+Q, the quit key of both the app and the baseline."""
+
+FIRST_FRAME_BYTES = 2000
+"""Without frame markers, this many bytes after the alternate screen count as a first frame.
+
+An 80x24 paint in 256 colours is well over 10 KB (see docs/benchmarks.md), so 2000 bytes is
+already a painted screen, not just mode switches (common practice for this harness, chosen here).
+"""
+
+
+@dataclass(frozen=True, slots=True)
+class Chunk:
+    """One read from the pty master."""
+
+    t: float
+    """Seconds since the child was started (perf_counter based)."""
+    data: bytes
+    """The bytes read."""
+
+
+def first_frame_index(chunks: Sequence[Chunk], min_bytes: int = FIRST_FRAME_BYTES) -> int | None:
+    """Index of the chunk that completes the first frame, or None if no frame has been seen.
+
+    A frame is complete at the first end-of-sync marker after the alternate screen, or, for a
+    terminal program that does not use synchronized output, once ``min_bytes`` have arrived after
+    the switch to the alternate screen.
+    """
+    buf = bytearray()
+    alt_end: int | None = None
+    for i, c in enumerate(chunks):
+        # Markers may straddle two reads, so each search starts a little before the new bytes.
+        start = max(0, len(buf) - 16)
+        buf += c.data
+        if alt_end is None:
+            pos = buf.find(ALT_SCREEN_ON, start)
+            if pos < 0:
+                continue
+            alt_end = pos + len(ALT_SCREEN_ON)
+        if buf.find(SYNC_END, max(alt_end, start)) >= 0:
+            return i
+        if len(buf) - alt_end >= min_bytes:
+            return i
+    return None
+
+
+def settled_index(chunks: Sequence[Chunk], quiet: float, now: float) -> int | None:
+    """Index of the last chunk before the output first went quiet for ``quiet`` seconds.
+
+    Only gaps after the first frame count. ``now`` is the current time (same clock as the chunks),
+    so that a quiet tail still being waited on is recognised once it is long enough.
+    """
+    first = first_frame_index(chunks)
+    if first is None:
+        return None
+    for i in range(first, len(chunks)):
+        following = chunks[i + 1].t if i + 1 < len(chunks) else now
+        if following - chunks[i].t >= quiet:
+            return i
+    return None
+
+
+def bytes_between(chunks: Sequence[Chunk], start: float, end: float) -> int:
+    """Bytes of the chunks that arrived in ``[start, end]``."""
+    return sum(len(c.data) for c in chunks if start <= c.t <= end)
+
+
+@dataclass
+class Session:
+    """A program running in a pty of ``cols`` x ``rows``; see :meth:`start`."""
+
+    argv: Sequence[str]
+    """Program and arguments."""
+    env: Mapping[str, str]
+    """The child's whole environment."""
+    cwd: str
+    """The child's working directory."""
+    cols: int = 80
+    """Terminal width."""
+    rows: int = 24
+    """Terminal height."""
+    answer_sync: bool = True
+    """Answer the synchronized-output query (gives frame boundaries)."""
+    chunks: list[Chunk] = field(default_factory=list)
+    """Everything the child wrote, in order."""
+    pid: int = -1
+    """Child pid once started."""
+    fd: int = -1
+    """Pty master file descriptor once started."""
+    t0: float = 0.0
+    """perf_counter just before the fork."""
+    max_rss_kib: int | None = None
+    """The child's peak resident set (KiB) once it has been reaped."""
+    exit_status: int | None = None
+    """Raw wait status once reaped."""
+    _pending: bytes = b""
+
+    def start(self) -> None:
+        """Fork the child onto a new pty and exec ``argv``."""
+        self.t0 = time.perf_counter()
+        pid, fd = pty.fork()
+        if pid == 0:  # child: never return into the harness
+            try:
+                winsize = struct.pack("HHHH", self.rows, self.cols, 0, 0)
+                fcntl.ioctl(0, termios.TIOCSWINSZ, winsize)
+                os.chdir(self.cwd)
+                os.execve(self.argv[0], list(self.argv), dict(self.env))
+            finally:
+                os._exit(127)
+        self.pid, self.fd = pid, fd
+
+    def now(self) -> float:
+        """Seconds since start."""
+        return time.perf_counter() - self.t0
+
+    def _read_once(self, timeout: float) -> bool:
+        """Read what is available within ``timeout``; False on timeout or end of output."""
+        if self.fd < 0:
+            return False
+        ready, _, _ = select.select([self.fd], [], [], max(timeout, 0.0))
+        if not ready:
+            return False
+        try:
+            data = os.read(self.fd, 65536)
+        except OSError as exc:
+            if exc.errno == errno.EIO:  # the child closed its side
+                self._close_fd()
+                return False
+            raise
+        if not data:
+            self._close_fd()
+            return False
+        self.chunks.append(Chunk(self.now(), data))
+        if self.answer_sync:
+            joined = self._pending + data
+            if SYNC_QUERY in joined:
+                self.send(SYNC_REPLY)
+                self._pending = b""
+            else:
+                self._pending = joined[-len(SYNC_QUERY) :]
+        return True
+
+    def _close_fd(self) -> None:
+        if self.fd >= 0:
+            os.close(self.fd)
+            self.fd = -1
+
+    def send(self, data: bytes) -> float:
+        """Write ``data`` as typed input; returns the time it was sent."""
+        t = self.now()
+        os.write(self.fd, data)
+        return t
+
+    def pump(self, seconds: float) -> None:
+        """Keep reading for ``seconds``."""
+        end = self.now() + seconds
+        while self.fd >= 0 and self.now() < end:
+            self._read_once(end - self.now())
+
+    def wait_next(self, timeout: float) -> bool:
+        """Wait up to ``timeout`` s for the next chunk; True if one arrived."""
+        return self._read_once(timeout)
+
+    def wait_settled(self, quiet: float, timeout: float) -> float:
+        """Read until the screen has settled; returns the time of its last chunk (seconds).
+
+        Raises TimeoutError when no settled frame appears within ``timeout``.
+        """
+        deadline = self.now() + timeout
+        while self.now() < deadline:
+            self._read_once(min(quiet / 4, deadline - self.now()))
+            idx = settled_index(self.chunks, quiet, self.now())
+            if idx is not None:
+                return self.chunks[idx].t
+            if self.fd < 0:
+                raise RuntimeError(f"{self.argv[0]} exited before its screen settled")
+        raise TimeoutError(f"no settled screen within {timeout:.0f} s")
+
+    def wait_quiet(self, after: float, quiet: float, timeout: float) -> float:
+        """Read until nothing has arrived for ``quiet`` s after time ``after``; last chunk time."""
+        deadline = self.now() + timeout
+        while self.now() < deadline:
+            self._read_once(min(quiet / 4, deadline - self.now()))
+            later = [c.t for c in self.chunks if c.t >= after]
+            last = later[-1] if later else after
+            if self.now() - last >= quiet:
+                return last
+        raise TimeoutError(f"output did not go quiet within {timeout:.0f} s")
+
+    def quit(self, timeout: float = 10.0) -> None:
+        """Send Ctrl+Q, drain the output and reap the child (killing it after ``timeout``)."""
+        if self.fd >= 0:
+            with contextlib.suppress(OSError):  # the child may already have gone
+                self.send(CTRL_Q)
+        deadline = self.now() + timeout
+        while self.fd >= 0 and self.now() < deadline:
+            self._read_once(0.1)
+        self._reap(deadline)
+
+    def _reap(self, deadline: float) -> None:
+        while True:
+            pid, status, usage = os.wait4(self.pid, os.WNOHANG)
+            if pid == self.pid:
+                self.exit_status = status
+                self.max_rss_kib = int(usage.ru_maxrss)  # KiB on Linux
+                self._close_fd()
+                return
+            if self.now() >= deadline:
+                os.kill(self.pid, signal.SIGKILL)
+                _, status, usage = os.wait4(self.pid, 0)
+                self.exit_status = status
+                self.max_rss_kib = int(usage.ru_maxrss)
+                self._close_fd()
+                return
+            if self.fd >= 0:
+                self._read_once(0.05)
+            else:
+                time.sleep(0.02)
+
+    def kill(self) -> None:
+        """Stop the child at once (used when a run fails)."""
+        if self.pid > 0 and self.exit_status is None:
+            with contextlib.suppress(ProcessLookupError):
+                os.kill(self.pid, signal.SIGKILL)
+            _, self.exit_status, usage = os.wait4(self.pid, 0)
+            self.max_rss_kib = int(usage.ru_maxrss)
+        self._close_fd()
+
+    def output(self) -> bytes:
+        """Everything written so far, joined."""
+        return b"".join(c.data for c in self.chunks)
