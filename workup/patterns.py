@@ -1,13 +1,107 @@
-"""Ranking the causes of a normal-gap metabolic acidosis from every draw of a case."""
+"""Ranking the causes of a normal-gap metabolic acidosis from every draw of a case.
+
+The ranker reads every draw: steady-state readings (urine pH, ammonium, potassium) come from draws
+taken during the normal-gap acidosis, FEHCO3 and the urine-minus-blood pCO2 from bicarbonate-loading
+draws (see :mod:`workup.pattern_rules`). Each cause gets weighted evidence for and against; the net
+weight orders them and sets the verdict. docs/ranking.md explains the weights.
+"""
 
 from __future__ import annotations
 
 from typing import Any
 
-from workup.findings import DrawResult, Ranking
+from workup.findings import DrawResult, Evidence, PatternCall, Ranking, Verdict
+from workup.next_tests import suggest
+from workup.pattern_rules import PATTERNS, gather, judge, missing_for
 from workup.settings import Settings
+
+LIKELY_AT = 4.0
+"""Net weight at or above which a cause is called likely (a design choice, docs/ranking.md)."""
+UNLIKELY_AT = -1.0
+"""Net weight at or below which a cause is called unlikely."""
+DECISIVE = 3.0
+"""A single piece of evidence against of at least this weight rules out "likely"."""
+
+
+def _verdict(score: float, against: list[Evidence]) -> Verdict:
+    if score <= UNLIKELY_AT:
+        return Verdict.unlikely
+    if score >= LIKELY_AT and not any(e.weight >= DECISIVE for e in against):
+        return Verdict.likely
+    return Verdict.possible
+
+
+def _no_acidosis_note(draws: list[DrawResult]) -> str:
+    """Why no draw shows a normal-gap acidosis, from each draw's primary disorder."""
+    parts = []
+    for r in draws:
+        primary = next((d for d in r.disorders if d.primary), None)
+        if primary is None:
+            parts.append(f"{r.label}: no acid-base disorder found")
+            continue
+        if primary.id == "respiratory_alkalosis" and primary.compensation == "appropriate":
+            kind = f"{primary.detail} " if primary.detail in ("acute", "chronic") else ""
+            parts.append(
+                f"{r.label}: the low bicarbonate is compensation for a {kind}respiratory "
+                "alkalosis, not a metabolic acidosis"
+            )
+        elif primary.id == "high_gap_metabolic_acidosis":
+            parts.append(
+                f"{r.label}: the acidosis is high-gap only (delta ratio does not show "
+                "an added normal-gap acidosis)"
+            )
+        elif primary.id == "metabolic_acidosis":
+            parts.append(f"{r.label}: the gap type is unknown (enter serum sodium and chloride)")
+        else:
+            parts.append(f"{r.label}: {primary.name.lower()}")
+    return ("No draw shows a normal-gap metabolic acidosis, so no cause is ranked: "
+            + "; ".join(parts) + ".")  # fmt: skip
 
 
 def rank(draws: list[DrawResult], case: Any, settings: Settings) -> Ranking:
-    """Judge each candidate cause on the whole case; best first."""
-    return Ranking([], [], ["pattern ranking not yet available"])
+    """Judge each candidate cause on the whole case; best first.
+
+    With no normal-gap metabolic acidosis in any draw (outside loading tests) every cause is
+    unlikely and ``notes`` says why.
+    """
+    context = getattr(case, "context", ()) or ()
+    rd = gather(draws, context, settings)
+    if not rd.acidosis_draws:
+        why = _no_acidosis_note(draws) if draws else "The case has no draws to rank."
+        calls = [
+            PatternCall(pid, name, Verdict.unlikely, 0.0,
+                        against=(Evidence("no normal-gap metabolic acidosis in any draw"),))
+            for pid, name in PATTERNS.items()
+        ]  # fmt: skip
+        return Ranking(calls, [], [why])
+
+    tally, nh4 = judge(rd, settings)
+    calls = []
+    for order, (pid, name) in enumerate(PATTERNS.items()):
+        sup = sorted(tally.support[pid], key=lambda e: -e.weight)
+        ag = sorted(tally.against[pid], key=lambda e: -e.weight)
+        score = sum(e.weight for e in sup) - sum(e.weight for e in ag)
+        call = PatternCall(pid, name, _verdict(score, ag), score, tuple(sup), tuple(ag),
+                           missing_for(pid, rd))  # fmt: skip
+        calls.append((order, call))
+    calls.sort(key=lambda t: (-t[1].score, t[0]))
+    ranked = [c for _, c in calls]
+
+    notes = []
+    presumed = [
+        r.label for r in draws if r.label in rd.acidosis_draws and any(
+            d.id == "normal_gap_metabolic_acidosis" and (d.detail or "").startswith("presumed")
+            for d in r.disorders)
+    ]  # fmt: skip
+    if presumed:
+        notes.append(
+            "The acidosis in " + ", ".join(presumed) + " is presumed from the chemistry alone: "
+            "without a blood gas a low bicarbonate may be compensation for a respiratory alkalosis."
+        )
+    if nh4 is not None and ("outweighed" in nh4.text or "set aside" in nh4.text):
+        notes.append("Ammonium: " + nh4.text + ".")
+    if not any(c.verdict is Verdict.likely for c in ranked):
+        notes.append(
+            "No cause reaches 'likely' yet; the suggested tests would separate the leaders."
+        )
+    return Ranking(ranked, suggest(ranked, rd), notes)

@@ -1,0 +1,202 @@
+"""Which test to do next: the ones whose expected result differs most between the leading causes.
+
+Each test carries a *signature*: the result expected under each cause (sheet §10–11: Berend et al.,
+Kidney Dis 2017, Table 1; Rodríguez Soriano, JASN 2002, Table 5; common practice for the rest).
+Two causes are separated by a test when their expected results differ. A test's usefulness is the
+sum, over each pair of leading causes it separates, of 1 / (1 + the gap between their scores), so
+a test that splits two close candidates ranks above one that splits a clear leader from an
+outsider. Tests whose answer is already in the case are not suggested; tests that confirm the
+leading cause add :data:`CONFIRM_BONUS`.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass
+from itertools import combinations
+
+from workup.findings import NextTest, PatternCall, Verdict
+from workup.pattern_rules import Readings
+
+LEADING_MAX = 3
+"""At most this many candidates (not unlikely, best first) count as leading."""
+CONFIRM_BONUS = 0.3
+"""Usefulness added when a test confirms the leading cause directly."""
+
+GI, PROX, DIST, HYK, T4, CKD, CL = (
+    "gi_bicarbonate_loss", "proximal_rta", "distal_rta", "hyperkalemic_distal_rta",
+    "hypoaldosteronism", "ckd_acidosis", "chloride_load",
+)  # fmt: skip
+
+
+@dataclass(frozen=True, slots=True)
+class SuggestedTest:
+    """A test the ranker may suggest."""
+
+    id: str
+    """Stable id."""
+    text: str
+    """The test in words."""
+    why: str
+    """What it settles."""
+    signature: dict[str, str]
+    """Pattern id → expected result; a pattern left out is not separated by this test."""
+    done_by: tuple[str, ...] = ()
+    """Reading keys that, when present, mean the answer is already in the case."""
+    confirms: tuple[str, ...] = ()
+    """Patterns this test confirms directly."""
+
+
+CATALOGUE: tuple[SuggestedTest, ...] = (
+    SuggestedTest(
+        "bicarbonate_loading_fehco3",
+        "Bicarbonate loading to plasma HCO3 ≥ 20, with FEHCO3 (fresh, anaerobic urine)",
+        "FEHCO3 above 15% means proximal wasting; below 5% fits distal RTA (Rodríguez Soriano 2002)",
+        {PROX: "high", DIST: "low", HYK: "low", T4: "intermediate", GI: "low", CL: "low"},
+        ("fe_bicarbonate",),
+        (PROX,),
+    ),
+    SuggestedTest(
+        "bicarbonate_loading_ub_pco2",
+        "Urine-minus-blood pCO2 once urine pH ≥ 7.6 during bicarbonate loading",
+        "below 20 mmHg means a classic distal secretory defect; above 20 a voltage defect or type 4 "
+        "(Rodríguez Soriano 2002)",
+        {DIST: "low", HYK: "normal", T4: "normal", PROX: "normal", GI: "normal"},
+        ("urine_blood_pco2",),
+        (DIST,),
+    ),
+    SuggestedTest(
+        "urine_ammonium",
+        "Urine ammonium: measured NH4 or the urine osmolal gap (urine osmolality, Na, K, urea, "
+        "glucose)",
+        "high ammonium means the kidney responds (gut loss); low means a renal cause",
+        {GI: "high", PROX: "high", CL: "high", DIST: "low", HYK: "low", T4: "low", CKD: "low"},
+        ("measured_ammonium", "urine_osmolal_gap"),
+    ),
+    SuggestedTest(
+        "urine_ph_meter",
+        "Urine pH by meter on a fresh sample taken during the acidosis",
+        "above 5.5 points to a distal defect; below 5.5 to type 4, proximal RTA or CKD",
+        {
+            DIST: "above 5.5",
+            HYK: "above 5.5",
+            T4: "below 5.5",
+            PROX: "below 5.5",
+            CKD: "below 5.5",
+            CL: "below 5.5",
+        },
+        ("urine_ph",),
+    ),
+    SuggestedTest(
+        "serum_potassium",
+        "Serum potassium with the acidosis",
+        "high potassium points to type 4 or a voltage defect; low to gut loss or classic RTA",
+        {T4: "high", HYK: "high", DIST: "low", GI: "low", PROX: "low"},
+        ("potassium",),
+    ),
+    SuggestedTest(
+        "renin_aldosterone",
+        "Plasma renin, aldosterone and morning cortisol",
+        "low aldosterone for the potassium confirms hypoaldosteronism; a normal or high one "
+        "points to resistance (voltage defect)",
+        {T4: "low", HYK: "normal or high", DIST: "normal", GI: "high", PROX: "normal"},
+        (),
+        (T4,),
+    ),
+    SuggestedTest(
+        "urine_potassium_response",
+        "Urine potassium with creatinine (K/creatinine) or osmolality (TTKG)",
+        "tells renal potassium wasting from conservation, and a blunted response to hyperkalemia",
+        {GI: "conserving", DIST: "wasting", PROX: "wasting", T4: "blunted", HYK: "blunted"},
+        ("ttkg", "urine_potassium_creatinine_ratio"),
+    ),
+    SuggestedTest(
+        "stool_electrolytes",
+        "Stool volume and electrolytes; laxative screen",
+        "confirms or excludes ongoing gut bicarbonate loss",
+        {GI: "loss", PROX: "none", DIST: "none", HYK: "none", T4: "none", CKD: "none"},
+        (),
+        (GI,),
+    ),
+    SuggestedTest(
+        "fanconi_panel",
+        "Fanconi panel: urine glucose with plasma glucose, FEPO4 or TmP/GFR, FE urate, amino "
+        "acids, β2-microglobulin; protein electrophoresis and free light chains",
+        "other proximal defects make proximal RTA (Fanconi syndrome) likely",
+        {PROX: "present", DIST: "absent", GI: "absent", HYK: "absent", T4: "absent"},
+        ("fe_phosphate", "glucosuria"),
+        (PROX,),
+    ),
+    SuggestedTest(
+        "egfr",
+        "Serum creatinine for eGFR (with age and sex)",
+        "an eGFR below 30 is enough to explain the acidosis",
+        {CKD: "below 30", GI: "any", DIST: "any", PROX: "any", CL: "any"},
+        ("egfr",),
+        (CKD,),
+    ),
+    SuggestedTest(
+        "urine_calcium_citrate_ultrasound",
+        "Urine calcium and citrate per creatinine; renal ultrasound for nephrocalcinosis",
+        "high calcium, low citrate and nephrocalcinosis fit classic distal RTA",
+        {DIST: "high Ca, low citrate", PROX: "normal", T4: "normal", GI: "normal"},
+        (),
+        (DIST,),
+    ),
+    SuggestedTest(
+        "autoimmune_serology",
+        "Anti-Ro/La and other autoimmune serology",
+        "Sjögren's syndrome and lupus are common causes of classic distal RTA in adults",
+        {DIST: "often positive"},
+        (),
+        (DIST,),
+    ),
+    SuggestedTest(
+        "urinary_tract_imaging",
+        "Renal and bladder ultrasound with post-void residual",
+        "obstruction is a common cause of a voltage-type distal defect",
+        {HYK: "obstruction", T4: "none", DIST: "none"},
+        (),
+        (HYK,),
+    ),
+    SuggestedTest(
+        "acidification_test",
+        "Furosemide–fludrocortisone test: urine pH hourly for 6 h",
+        "a urine pH below 5.3 in any sample excludes a distal acidification defect (Walsh et al. "
+        "2007, from memory)",
+        {DIST: "fails", HYK: "fails", T4: "acidifies", PROX: "acidifies", GI: "acidifies"},
+        ("urine_ph", "acidification_test"),
+    ),
+)
+"""Every test the ranker may suggest, in the order used to break ties."""
+
+
+def leading(calls: list[PatternCall]) -> list[PatternCall]:
+    """The candidates the next test should separate: not unlikely, best first."""
+    return [c for c in calls if c.verdict is not Verdict.unlikely][:LEADING_MAX]
+
+
+def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
+    """Tests most useful first (see module doc); [] when no candidate is left."""
+    lead = leading(calls)
+    if not lead:
+        return []
+    top = lead[0].id
+    scored: list[tuple[float, int, NextTest]] = []
+    for order, spec in enumerate(CATALOGUE):
+        if spec.done_by and any(rd.get(k) is not None for k in spec.done_by):
+            continue
+        use, split = 0.0, set()
+        for a, b in combinations(lead, 2):
+            ea, eb = spec.signature.get(a.id), spec.signature.get(b.id)
+            if ea is not None and eb is not None and ea != eb:
+                use += 1.0 / (1.0 + abs(a.score - b.score))
+                split |= {a.id, b.id}
+        if top in spec.confirms:
+            use += CONFIRM_BONUS
+            split.add(top)
+        if use <= 0:
+            continue
+        seps = tuple(c.id for c in lead if c.id in split)
+        scored.append((use, order, NextTest(spec.id, spec.text, spec.why, seps)))
+    scored.sort(key=lambda t: (-t[0], t[1]))
+    return [t for _, _, t in scored]
