@@ -1,0 +1,1 @@
+"""Helper scripts run as separate processes by the crash tests."""
