@@ -141,6 +141,11 @@ def _unit(f: Finding) -> str:
     return f" {f.unit}" if f.unit else ""
 
 
+def _num(key: str, value: float) -> str:
+    """A reading's number: pH with two decimals, everything else with at most one."""
+    return f"{value:.2f}" if key == "urine_ph" else fmt(round(value, 1))
+
+
 def _better(new: Reading, old: Reading | None) -> bool:
     """An ok reading beats a caution one; among equals the later draw wins."""
     return old is None or new.factor >= old.factor
@@ -157,7 +162,7 @@ def _offer(out: Readings, key: str, f: Finding | None, draw: str) -> None:
         return
     r = Reading(
         key, f.interpretation, f.value, draw, f.id, STATUS_FACTOR[f.status],
-        f"{NAME.get(key, f.name)} {fmt(f.value)}{_unit(f)} ({draw})",
+        f"{NAME.get(key, f.name)} {_num(key, f.value)}{_unit(f)} ({draw})",
     )  # fmt: skip
     if _better(r, out.by_key.get(key)):
         out.by_key[key] = r
@@ -218,7 +223,7 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
         low, label = min(acid_test_ph)
         word = "acidified" if low < FURO_ACIDIFIED_BELOW else "not_acidified"
         out.by_key["acidification_test"] = Reading(
-            "acidification_test", word, low, label, "urine_ph", 1.0,
+            "acidification_test", word, low, label, None, 1.0,
             f"lowest urine pH {low:.2f} during an acidification test ({label})",
         )  # fmt: skip
     return out
@@ -563,7 +568,7 @@ def _kidney(t: Tally, rd: Readings, s: Settings) -> None:
             ]
         elif g < 45:
             rules = [
-                ("ckd_acidosis", -1.0, "seldom enough alone to cause acidosis"),
+                ("ckd_acidosis", -1.5, "seldom enough alone to cause acidosis"),
                 ("hypoaldosteronism", 0.5, "type 4 often comes with reduced kidney function"),
             ]
         elif g < 60:
