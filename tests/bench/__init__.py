@@ -1,0 +1,1 @@
+"""Tests of the benchmark harness (its pure parts; no timing assertions)."""
