@@ -197,7 +197,7 @@ def test_opening_a_case_with_left_over_edits_sets_them_aside(case_file):
 
     s2 = CaseSession.open(case_file)
     assert s2.pending_draft is not None and s2.pending_draft.case.notes == "left over"
-    assert any("unsaved edits" in n for n in s2.notes)
+    assert any("were found" in n for n in s2.notes)
     s2.journal(_with_notes(s2, "new session"))  # must not overwrite the left-over edits
     notes = sorted(d.case.notes for d in list_drafts())
     assert notes == ["left over", "new session"]
@@ -226,7 +226,7 @@ def test_a_left_over_draft_equal_to_the_file_is_dropped_quietly(case_file):
     _crash(s)
     with CaseSession.open(case_file) as s2:
         assert s2.pending_draft is None
-        assert not any("unsaved edits" in n for n in s2.notes)
+        assert not any("were found" in n for n in s2.notes)
         assert list_drafts() == []
 
 
