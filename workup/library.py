@@ -1,0 +1,608 @@
+"""The case library: one summary row per case file, kept fast by a rebuildable index.
+
+The YAML files stay the source of truth. :func:`list_library` scans a folder, re-reads only the
+files whose size or modification time changed since the index last saw them (see
+:mod:`workup.library_index`), and returns one :class:`LibraryEntry` per file. A file that fails
+to load becomes an entry with its error; it never stops the listing.
+
+A cold build reads every file, so the per-file work is kept lean: one YAML pass (compose, then
+construct from the same node tree) instead of the checking loader's three, falling back to
+:func:`workup.caseio.load_case` whenever a file could hold an anchor, alias or tag, or fails in any
+way, so that the verdict on a file and its error message are exactly the loader's. Large builds
+are spread over a process pool.
+
+This module imports nothing heavy at import time: an unchanged repeat listing must not pay for
+pydantic or the calculators.
+"""
+
+from __future__ import annotations
+
+import functools
+import json
+import os
+import sys
+import threading
+from collections.abc import Callable, Iterable
+from dataclasses import dataclass, field
+from pathlib import Path
+from typing import Any
+
+CASE_SUFFIXES = (".yaml", ".yml")
+"""File name endings the library lists."""
+
+POOL_THRESHOLD = 150
+"""Fewer files than this to (re)index are read in-process: a pool costs more than it saves."""
+
+ANALYTE_STATUS_MEASURED = "measured"
+"""Status of a measured value inside the usual clinical range."""
+ANALYTE_STATUS_UNUSUAL = "unusual"
+"""Status of a measured value outside the usual clinical range (accepted, with a caution)."""
+
+
+@dataclass(frozen=True, slots=True)
+class LibraryEntry:
+    """One case file as the library lists it."""
+
+    name: str
+    """The file's path relative to the library folder, with forward slashes."""
+    path: Path
+    """The file's full path."""
+    size: int
+    """File size in bytes when it was indexed."""
+    mtime_ns: int
+    """Modification time (ns) when it was indexed."""
+    ok: bool
+    """True when the file loaded as a case."""
+    error: str | None = None
+    """The loader's message for a file that did not load (or an assessment that failed)."""
+    label: str = ""
+    """The case's label ("" for a file that did not load)."""
+    notes: str = ""
+    """The case's free-text notes."""
+    first_taken: str | None = None
+    """ISO time of the earliest dated draw, if any draw is dated."""
+    latest_taken: str | None = None
+    """ISO time of the latest draw (None when the latest draw has no time)."""
+    latest_draw: str | None = None
+    """Label of the latest draw."""
+    n_draws: int = 0
+    """How many draws the case has."""
+    leading_id: str | None = None
+    """Id of the best-ranked cause of a normal-gap acidosis, if any was ranked."""
+    leading_name: str | None = None
+    """Its human name."""
+    verdict: str | None = None
+    """Its verdict (likely, possible, unlikely)."""
+    pending: bool = False
+    """True when the assessment still suggests a next test."""
+    next_test: str | None = None
+    """The most useful next test, in words."""
+    loading_expected: bool = False
+    """True when a suggested next test is a loading test not yet drawn."""
+    has_loading: bool = False
+    """True when some draw was taken during a loading test."""
+    ranking_note: str | None = None
+    """The ranking's first statement about the case as a whole (e.g. why nothing leads)."""
+    text: str = ""
+    """Lower-cased searchable text: label, notes, draw labels and draw notes (the error text for a
+    file that did not load)."""
+    dates: tuple[str, ...] = ()
+    """ISO times of every dated draw, oldest first."""
+
+    def to_json(self) -> dict[str, Any]:
+        """The JSON object of ``workup list --json`` (documented in docs/search.md)."""
+        return {
+            "file": self.name,
+            "ok": self.ok,
+            "error": self.error,
+            "label": self.label or None,
+            "draws": self.n_draws,
+            "latest_draw": self.latest_draw,
+            "latest_taken": self.latest_taken,
+            "leading": (
+                {"id": self.leading_id, "name": self.leading_name, "verdict": self.verdict}
+                if self.leading_id
+                else None
+            ),
+            "ranking_note": self.ranking_note,
+            "pending": self.pending,
+            "next_test": self.next_test,
+            "loading_expected": self.loading_expected,
+        }
+
+
+@dataclass(frozen=True, slots=True)
+class DrawValues:
+    """The numbers of one draw as the index stores them, for search conditions."""
+
+    label: str
+    """The draw's label."""
+    taken: str | None
+    """ISO time the draw was taken, if known."""
+    during: str | None
+    """The loading test under way, if any."""
+    values: dict[str, tuple[float | None, str]] = field(default_factory=dict)
+    """``panel.analyte`` and index id → (value, status). Analytes: measured/unusual; indices:
+    the Finding's status (ok, caution, not_valid, needs_input)."""
+
+
+# Column order shared with workup.library_index (the index stores rows as these tuples).
+ROW_FIELDS = (
+    "name",
+    "size",
+    "mtime_ns",
+    "ok",
+    "error",
+    "label",
+    "notes",
+    "first_taken",
+    "latest_taken",
+    "latest_draw",
+    "n_draws",
+    "leading_id",
+    "leading_name",
+    "verdict",
+    "pending",
+    "next_test",
+    "loading_expected",
+    "has_loading",
+    "ranking_note",
+    "text",
+    "dates",
+    "draws",
+)
+
+
+def entry_from_row(folder: Path, row: tuple[Any, ...]) -> LibraryEntry:
+    """A LibraryEntry from an index row (ROW_FIELDS order, ``draws`` left out)."""
+    (name, size, mtime, ok, error, label, notes, first, latest, latest_draw, n, lid, lname,
+     verdict, pending, next_test, loading_exp, has_loading, note, text, dates) = row[:21]  # fmt: skip
+    return LibraryEntry(
+        name=name,
+        path=folder / name,
+        size=size,
+        mtime_ns=mtime,
+        ok=bool(ok),
+        error=error,
+        label=label or "",
+        notes=notes or "",
+        first_taken=first,
+        latest_taken=latest,
+        latest_draw=latest_draw,
+        n_draws=n or 0,
+        leading_id=lid,
+        leading_name=lname,
+        verdict=verdict,
+        pending=bool(pending),
+        next_test=next_test,
+        loading_expected=bool(loading_exp),
+        has_loading=bool(has_loading),
+        ranking_note=note,
+        text=text or "",
+        dates=tuple(dates.split()) if dates else (),
+    )
+
+
+def draws_from_json(text: str | None) -> list[DrawValues]:
+    """Decode the ``draws`` column of the index."""
+    if not text:
+        return []
+    return [
+        DrawValues(
+            d["label"],
+            d.get("taken"),
+            d.get("during"),
+            {k: (v[0], v[1]) for k, v in d["v"].items()},
+        )
+        for d in json.loads(text)
+    ]
+
+
+# --- reading one file (runs in pool workers) ------------------------------------------------
+
+
+def _read_case(path: Path) -> Any:
+    """Load the case at ``path`` with one YAML pass where that is provably equivalent.
+
+    A file with ``&``, ``*`` or ``!`` anywhere could hold an anchor, alias or tag, which the
+    checking loader must judge; so could anything unusual. Those, and every failure or doubt of
+    the lean path, go through :func:`workup.caseio.load_case`, which raises the canonical error.
+    """
+    from workup import caseio
+
+    try:
+        raw = path.read_bytes() if path.stat().st_size <= caseio.MAX_FILE_BYTES else None
+    except OSError:
+        raw = None
+    if raw is None or len(raw) > caseio.MAX_FILE_BYTES or any(c in raw for c in _SUSPECT):
+        return caseio.load_case(path)
+    try:
+        text = raw.decode("utf-8-sig")
+        loader = _lean_loader()(text)
+        try:
+            node = loader.get_single_node()
+            data = _build(node, loader) if node is not None else None
+        finally:
+            loader.dispose()
+    except Exception:  # _Slow, or anything odd: the checking loader decides and words the error
+        return caseio.load_case(path)
+    if not isinstance(data, dict):
+        return caseio.load_case(path)
+    return caseio.case_from_data(data, str(path), node)
+
+
+_SUSPECT = (b"&", b"*", b"!", b"\x00")
+
+
+class _Slow(Exception):
+    """The lean reader met something only the checking loader may judge."""
+
+
+@functools.lru_cache(maxsize=1)
+def _lean_loader() -> Any:
+    """CSafeLoader with a memo on tag resolution (a pure function of kind, text and style)."""
+    import yaml
+
+    base = getattr(yaml, "CSafeLoader", yaml.SafeLoader)
+    memo: dict[tuple[Any, Any, Any], str] = {}
+
+    class LeanLoader(base):  # type: ignore[misc, valid-type]
+        def resolve(self, kind: Any, value: Any, implicit: Any) -> str:
+            key = (kind, value, implicit)
+            tag = memo.get(key)
+            if tag is None:
+                tag = super().resolve(kind, value, implicit)
+                if len(memo) < 200_000:
+                    memo[key] = tag
+            return tag
+
+    return LeanLoader
+
+
+_T = "tag:yaml.org,2002:"
+_STR, _INT, _FLOAT, _BOOL, _NULL, _TIME, _MAP, _SEQ = (
+    _T + t for t in ("str", "int", "float", "bool", "null", "timestamp", "map", "seq")
+)
+
+
+def _build(node: Any, ctor: Any) -> Any:
+    """Plain data from a node tree, as SafeConstructor builds it for the tags a case file uses.
+
+    Raises _Slow for anything else (merge keys, sets, binary, non-string or repeated keys), so
+    that the checking loader handles it.
+    """
+    kind = node.id
+    tag = node.tag
+    if kind == "scalar":
+        if tag == _STR:
+            return node.value
+        if tag == _INT:
+            return ctor.construct_yaml_int(node)
+        if tag == _FLOAT:
+            return ctor.construct_yaml_float(node)
+        if tag == _NULL:
+            return None
+        if tag == _BOOL:
+            return ctor.construct_yaml_bool(node)
+        if tag == _TIME:
+            return ctor.construct_yaml_timestamp(node)
+        raise _Slow(tag)
+    if kind == "mapping" and tag == _MAP:
+        out: dict[str, Any] = {}
+        for k, v in node.value:
+            if k.id != "scalar" or k.tag != _STR or k.value in out:
+                raise _Slow("key")
+            out[k.value] = _build(v, ctor)
+        return out
+    if kind == "sequence" and tag == _SEQ:
+        return [_build(v, ctor) for v in node.value]
+    raise _Slow(tag)
+
+
+@functools.lru_cache(maxsize=1)
+def _usual_ranges() -> dict[tuple[str, str], tuple[float, float]]:
+    from workup.analytes import CATALOGUE
+
+    return {(p.value, k): a.usual for p, keys in CATALOGUE.items() for k, a in keys.items()}
+
+
+def _loading_in(text: str) -> bool:
+    t = text.lower()
+    return "loading" in t or "furosemide" in t or "ammonium chloride" in t
+
+
+def summarize_case(
+    case: Any, assess_fn: Callable[..., Any], overrides: dict[str, float]
+) -> dict[str, Any]:
+    """The index fields of a loaded case (everything but file name, size, mtime and errors)."""
+    usual = _usual_ranges()
+    draws = case.draws
+    timed = [d.taken for d in draws if d.taken is not None]
+    latest = case.latest_draw() if draws else None
+    parts = [case.label, case.notes or ""]
+    draw_json = []
+    for d in draws:
+        parts += [d.label, d.notes or ""]
+        values: dict[str, list[Any]] = {}
+        for panel in (d.serum, d.blood_gas, d.urine):
+            pname = panel.PANEL.value
+            for key, m in panel.measurements().items():
+                low, high = usual[pname, key]
+                status = (
+                    ANALYTE_STATUS_MEASURED
+                    if low <= m.canonical <= high
+                    else ANALYTE_STATUS_UNUSUAL
+                )
+                values[f"{pname}.{key}"] = [m.canonical, status]
+        draw_json.append(
+            {
+                "label": d.label,
+                "taken": d.taken.isoformat(timespec="minutes") if d.taken else None,
+                "during": d.during.value if d.during else None,
+                "v": values,
+            }
+        )
+    out: dict[str, Any] = {
+        "label": case.label,
+        "notes": case.notes or "",
+        "first_taken": min(timed).isoformat(timespec="minutes") if timed else None,
+        "latest_taken": (
+            latest.taken.isoformat(timespec="minutes")
+            if latest is not None and latest.taken
+            else None
+        ),
+        "latest_draw": latest.label if latest is not None else None,
+        "n_draws": len(draws),
+        "has_loading": any(d.during is not None for d in draws),
+        "text": " ".join(p for p in parts if p).lower(),
+        "dates": " ".join(sorted(t.isoformat(timespec="minutes") for t in timed)),
+        "error": None,
+        "leading_id": None,
+        "leading_name": None,
+        "verdict": None,
+        "pending": False,
+        "next_test": None,
+        "loading_expected": False,
+        "ranking_note": None,
+    }
+    try:
+        a = assess_fn(case, None, overrides)
+    except Exception as exc:  # others' calculators must never stop a listing
+        out["error"] = f"the assessment failed: {type(exc).__name__}: {exc}"
+    else:
+        for dj, result in zip(draw_json, a.draws, strict=False):
+            for fid, f in result.findings.items():
+                dj["v"][fid] = [f.value, f.status.value]
+        lead = a.leading
+        if lead is not None:
+            out.update(leading_id=lead.id, leading_name=lead.name, verdict=lead.verdict.value)
+        if a.next_tests:
+            first = a.next_tests[0]
+            done = {d.during.value for d in draws if d.during is not None}
+            loading = [
+                t for t in a.next_tests
+                if _loading_in(f"{t.id} {t.text}") and not any(x in t.id for x in done)
+            ]  # fmt: skip
+            out.update(pending=True, next_test=first.text, loading_expected=bool(loading))
+        if a.ranking_notes:
+            out["ranking_note"] = a.ranking_notes[0]
+    out["draws"] = json.dumps(draw_json, separators=(",", ":"))
+    return out
+
+
+def _relative_error(exc: Exception, full: str, name: str) -> str:
+    """The loader's message with the full path replaced by the library-relative name."""
+    return str(exc).replace(full, name)
+
+
+def summarize_file(
+    folder: Path,
+    name: str,
+    size: int,
+    mtime_ns: int,
+    overrides: dict[str, float] | None = None,
+    assess_fn: Callable[..., Any] | None = None,
+) -> tuple[Any, ...]:
+    """The index row (ROW_FIELDS order) of file ``name`` in ``folder``."""
+    from workup.caseio import CaseFileError
+
+    if assess_fn is None:
+        from workup.assess import assess as assess_fn
+    path = folder / name
+    base: dict[str, Any] = {"name": name, "size": size, "mtime_ns": mtime_ns}
+    try:
+        case = _read_case(path)
+    except CaseFileError as exc:
+        error = _relative_error(exc, str(path), name)
+        row = {**base, "ok": 0, "error": error, "n_draws": 0, "text": error.lower()}
+    except Exception as exc:  # a loader bug must not stop the listing either
+        error = f"{name}: cannot read: {type(exc).__name__}: {exc}"
+        row = {**base, "ok": 0, "error": error, "n_draws": 0, "text": error.lower()}
+    else:
+        row = {**base, "ok": 1, **summarize_case(case, assess_fn, overrides or {})}
+    return tuple(row.get(f) for f in ROW_FIELDS)
+
+
+def _summarize_chunk(
+    folder: str, items: list[tuple[str, int, int]], overrides: dict[str, float]
+) -> list[tuple[Any, ...]]:
+    """Pool worker: rows for a chunk of (name, size, mtime_ns)."""
+    base = Path(folder)
+    return [summarize_file(base, n, s, m, overrides) for n, s, m in items]
+
+
+def summarize_many(
+    folder: Path,
+    items: list[tuple[str, int, int]],
+    overrides: dict[str, float],
+    workers: int | None = None,
+) -> Iterable[list[tuple[Any, ...]]]:
+    """Rows for ``items``, in chunks as they finish; a process pool when there are many."""
+    cpus = os.cpu_count() or 1
+    workers = cpus if workers is None else workers
+    if workers <= 1 or len(items) < POOL_THRESHOLD:
+        yield _summarize_chunk(str(folder), items, overrides)
+        return
+    import multiprocessing
+    from concurrent.futures import ProcessPoolExecutor, as_completed
+
+    # fork shares the already-imported core for free, but forking a process that runs other
+    # threads (the terminal app) can deadlock a child; spawn is the safe choice there.
+    method = (
+        "fork" if sys.platform.startswith("linux") and threading.active_count() == 1 else "spawn"
+    )
+    # Warm the imports once before forking, so each child starts ready.
+    if method == "fork":
+        import workup.assess
+        import workup.caseio  # noqa: F401
+    chunk = max(50, min(400, len(items) // (workers * 6) or 1))
+    ctx = multiprocessing.get_context(method)
+    with ProcessPoolExecutor(max_workers=workers, mp_context=ctx) as pool:
+        futures = [
+            pool.submit(_summarize_chunk, str(folder), items[i : i + chunk], overrides)
+            for i in range(0, len(items), chunk)
+        ]
+        for fut in as_completed(futures):
+            yield fut.result()
+
+
+# --- listing ---------------------------------------------------------------------------------
+
+SORT_KEYS = ("file", "label", "date", "pattern")
+"""Orders the listing and the library screen offer."""
+
+_VERDICT_RANK = {"likely": 0, "possible": 1, "unlikely": 2}
+
+
+def sort_entries(
+    entries: list[LibraryEntry], key: str = "file", reverse: bool = False
+) -> list[LibraryEntry]:
+    """``entries`` ordered by file name, label, latest draw time (newest first) or leading pattern.
+
+    Undated cases and files that did not load go last whatever the direction.
+    """
+    if key == "file":
+        out = sorted(entries, key=lambda e: e.name)
+    elif key == "label":
+        out = sorted(entries, key=lambda e: (e.label.lower(), e.name))
+    elif key == "date":
+        out = sorted(entries, key=lambda e: (e.latest_taken or "", e.name), reverse=True)
+    elif key == "pattern":
+        out = sorted(
+            entries,
+            key=lambda e: (
+                e.leading_name is None,
+                (e.leading_name or "").lower(),
+                _VERDICT_RANK.get(e.verdict or "", 3),
+                e.name,
+            ),
+        )
+    else:
+        raise ValueError(f"unknown sort key {key!r}; use one of {', '.join(SORT_KEYS)}")
+    if reverse:
+        out.reverse()
+    last = {id(e) for e in out if not e.ok or (key == "date" and not e.latest_taken)}
+    if not last:
+        return out
+    return [e for e in out if id(e) not in last] + [e for e in out if id(e) in last]
+
+
+def describe_leading(e: LibraryEntry) -> str:
+    """The leading cause and its verdict in words, e.g. "distal RTA (likely)"."""
+    if not e.ok:
+        return "did not load"
+    if e.leading_id is None:
+        return "no cause ranked"
+    return f"{e.leading_name or e.leading_id} ({e.verdict})"
+
+
+def describe_pending(e: LibraryEntry) -> str:
+    """Whether a test is still pending, in words."""
+    if not e.ok:
+        return ""
+    if e.loading_expected:
+        return "loading test"
+    if e.pending:
+        return "next test"
+    return "none"
+
+
+def status_word(status: str) -> str:
+    """The word for a stored status: the Finding status words, or measured / unusual."""
+    from workup.findings import STATUS_WORD, Status
+
+    try:
+        return STATUS_WORD[Status(status)]
+    except ValueError:
+        return status
+
+
+def scan_folder(folder: Path) -> dict[str, tuple[int, int]]:
+    """Every case file under ``folder`` (sub-folders too, hidden ones skipped): name → (size,
+    mtime_ns)."""
+    out: dict[str, tuple[int, int]] = {}
+    stack = [("", str(folder))]
+    while stack:
+        prefix, where = stack.pop()
+        try:
+            it = os.scandir(where)
+        except OSError:
+            continue
+        with it:
+            for e in it:
+                if e.name.startswith("."):
+                    continue
+                try:
+                    if e.is_dir():
+                        stack.append((prefix + e.name + "/", e.path))
+                    elif e.name.endswith(CASE_SUFFIXES) and e.is_file():
+                        st = e.stat()
+                        out[prefix + e.name] = (st.st_size, st.st_mtime_ns)
+                except OSError:
+                    continue
+    return out
+
+
+def open_library(
+    folder: Path,
+    cache_file: Path | None = None,
+    overrides: dict[str, float] | None = None,
+    workers: int | None = None,
+) -> Any:
+    """The index of ``folder``, open and brought up to date (a LibraryIndex; close it after use).
+
+    ``cache_file`` defaults to the per-user cache (see :func:`workup.library_index.cache_path`);
+    ``overrides`` are the user's settings (the leading pattern depends on them).
+    """
+    import sqlite3
+
+    from workup.library_index import LibraryIndex, cache_path, remove_index
+
+    index = None
+    for attempt in range(2):
+        try:
+            index = LibraryIndex.open(folder, cache_file, overrides or {})
+            index.refresh(workers=workers)
+            return index
+        except sqlite3.DatabaseError:
+            # Damaged while open (another process, a full disk): drop the cache and rebuild once.
+            if index is not None:
+                index.close()
+            if attempt:
+                raise
+            remove_index(cache_file or cache_path(folder, overrides))
+    raise AssertionError("unreachable")
+
+
+def list_library(
+    folder: Path,
+    cache_file: Path | None = None,
+    overrides: dict[str, float] | None = None,
+    workers: int | None = None,
+) -> list[LibraryEntry]:
+    """Every case file under ``folder``, by name, re-reading only what changed since last time."""
+    index = open_library(folder, cache_file, overrides, workers)
+    try:
+        return index.entries()
+    finally:
+        index.close()

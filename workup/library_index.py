@@ -1,0 +1,238 @@
+"""The library index: an SQLite cache of case summaries, keyed by file name, size and mtime (ns).
+
+It lives in the per-user cache folder (``platformdirs.user_cache_path("workup")/library``, which
+honours XDG_CACHE_HOME), one file per library folder and settings, and holds nothing that cannot
+be rebuilt from the case files: it may be deleted at any time. It is rebuilt silently when it is
+missing, corrupt, or was written by another index schema or another version of the code that
+computes the summaries. Many readers may use it at once (WAL journal); each batch of writes is
+one short ``BEGIN IMMEDIATE`` transaction, so a second writer waits rather than interleaves.
+"""
+
+from __future__ import annotations
+
+import contextlib
+import functools
+import hashlib
+import json
+import sqlite3
+from dataclasses import dataclass
+from pathlib import Path
+from typing import Any
+
+from workup import __version__
+from workup.library import (
+    ROW_FIELDS,
+    DrawValues,
+    LibraryEntry,
+    draws_from_json,
+    entry_from_row,
+    scan_folder,
+    summarize_many,
+)
+
+INDEX_SCHEMA = 2
+"""Bump when the table layout or the meaning of a column changes."""
+
+_CORE = Path(__file__).resolve().parent
+_LIST_COLUMNS = ", ".join(ROW_FIELDS[:-1])
+_CREATE = f"""
+CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
+CREATE TABLE cases (
+    name TEXT PRIMARY KEY, size INTEGER NOT NULL, mtime_ns INTEGER NOT NULL, ok INTEGER NOT NULL,
+    {", ".join(f"{f} {'INTEGER' if f in ('n_draws', 'pending', 'loading_expected', 'has_loading') else 'TEXT'}" for f in ROW_FIELDS[4:])}
+);
+"""
+
+
+@dataclass(frozen=True, slots=True)
+class RefreshStats:
+    """What one refresh did."""
+
+    read: int
+    """Files (re)read because they were new or changed."""
+    removed: int
+    """Entries dropped because their file is gone."""
+    unchanged: int
+    """Files served from the index."""
+    rebuilt: bool
+    """True when the index was created afresh (missing, stale or corrupt)."""
+
+
+def cache_dir() -> Path:
+    """The folder holding library indexes."""
+    from platformdirs import user_cache_path
+
+    return user_cache_path("workup", appauthor=False) / "library"
+
+
+def cache_path(folder: Path, overrides: dict[str, float] | None = None) -> Path:
+    """The index file for ``folder`` under the user's settings ``overrides``."""
+    key = json.dumps([str(Path(folder).resolve()), sorted((overrides or {}).items())])
+    return cache_dir() / f"index-{hashlib.sha1(key.encode()).hexdigest()[:16]}.sqlite"
+
+
+@functools.lru_cache(maxsize=1)
+def engine_stamp() -> str:
+    """Identifies the code that computes summaries: schema, version and the core's source files.
+
+    A changed calculator changes the stamp, so an index never serves summaries computed by other
+    code. Computed once per process so that one run sees one stamp.
+    """
+    h = hashlib.sha1(f"{INDEX_SCHEMA}|{__version__}".encode())
+    for p in sorted(_CORE.rglob("*.py")):
+        with contextlib.suppress(OSError):
+            st = p.stat()
+            h.update(f"{p.relative_to(_CORE)}|{st.st_size}|{st.st_mtime_ns}".encode())
+    return h.hexdigest()
+
+
+def remove_index(path: Path) -> None:
+    """Delete the index file at ``path`` with its WAL and shared-memory files."""
+    for p in (path, path.with_name(path.name + "-wal"), path.with_name(path.name + "-shm")):
+        with contextlib.suppress(OSError):
+            p.unlink()
+
+
+def _connect(path: Path | str) -> sqlite3.Connection:
+    conn = sqlite3.connect(str(path), timeout=10.0, isolation_level=None)
+    conn.execute("PRAGMA journal_mode=WAL")
+    conn.execute("PRAGMA synchronous=NORMAL")
+    return conn
+
+
+def _current(conn: sqlite3.Connection, stamp: str) -> bool:
+    """True when the tables exist and were written for ``stamp``; raises DatabaseError if corrupt."""
+    tables = {r[0] for r in conn.execute("SELECT name FROM sqlite_master WHERE type='table'")}
+    if not {"meta", "cases"} <= tables:
+        return False
+    row = conn.execute("SELECT value FROM meta WHERE key='stamp'").fetchone()
+    if row is None or row[0] != stamp:
+        return False
+    conn.execute("SELECT count(*) FROM cases").fetchone()
+    return True
+
+
+def _reset(conn: sqlite3.Connection, stamp: str) -> None:
+    conn.execute("BEGIN IMMEDIATE")
+    try:
+        conn.execute("DROP TABLE IF EXISTS cases")
+        conn.execute("DROP TABLE IF EXISTS meta")
+        for stmt in _CREATE.split(";"):
+            if stmt.strip():
+                conn.execute(stmt)
+        conn.execute("INSERT INTO meta VALUES ('stamp', ?)", (stamp,))
+        conn.execute("COMMIT")
+    except BaseException:
+        conn.execute("ROLLBACK")
+        raise
+
+
+class LibraryIndex:
+    """The cached summaries of one library folder."""
+
+    def __init__(
+        self,
+        folder: Path,
+        conn: sqlite3.Connection,
+        overrides: dict[str, float],
+        location: Path | None,
+        rebuilt: bool,
+    ) -> None:
+        self.folder = Path(folder)
+        self.conn = conn
+        self.overrides = overrides
+        self.location = location
+        """The index file, or None when it had to be kept in memory (cache not writable)."""
+        self._rebuilt = rebuilt
+
+    @classmethod
+    def open(
+        cls,
+        folder: Path,
+        cache_file: Path | None = None,
+        overrides: dict[str, float] | None = None,
+    ) -> LibraryIndex:
+        """Open (creating, or rebuilding when stale or corrupt) the index of ``folder``."""
+        overrides = dict(overrides or {})
+        path = Path(cache_file) if cache_file is not None else cache_path(folder, overrides)
+        stamp = engine_stamp()
+        for _attempt in range(2):
+            conn = None
+            try:
+                path.parent.mkdir(parents=True, exist_ok=True)
+                conn = _connect(path)
+                rebuilt = not _current(conn, stamp)
+                if rebuilt:
+                    _reset(conn, stamp)
+                return cls(folder, conn, overrides, path, rebuilt)
+            except sqlite3.DatabaseError:
+                # Corrupt or not a database at all: it is only a cache, start again.
+                if conn is not None:
+                    conn.close()
+                remove_index(path)
+            except OSError:
+                break
+        # The cache folder is unusable (read-only home, full disk): index in memory this time.
+        conn = _connect(":memory:")
+        _reset(conn, stamp)
+        return cls(folder, conn, overrides, None, True)
+
+    def __enter__(self) -> LibraryIndex:
+        return self
+
+    def __exit__(self, *exc: object) -> None:
+        self.close()
+
+    def close(self) -> None:
+        """Close the connection."""
+        self.conn.close()
+
+    def refresh(self, workers: int | None = None) -> RefreshStats:
+        """Bring the index up to date with the folder: read new and changed files, drop gone ones."""
+        on_disk = scan_folder(self.folder)
+        known = {
+            n: (s, m) for n, s, m in self.conn.execute("SELECT name, size, mtime_ns FROM cases")
+        }
+        todo = [(n, s, m) for n, (s, m) in sorted(on_disk.items()) if known.get(n) != (s, m)]
+        gone = [n for n in known if n not in on_disk]
+        insert = f"INSERT OR REPLACE INTO cases ({', '.join(ROW_FIELDS)}) VALUES ({', '.join('?' * len(ROW_FIELDS))})"
+        if gone:
+            self._write(
+                lambda c: c.executemany("DELETE FROM cases WHERE name=?", [(n,) for n in gone])
+            )
+        if todo:
+            for rows in summarize_many(self.folder, todo, self.overrides, workers):
+                self._write(lambda c, rows=rows: c.executemany(insert, rows))
+        stats = RefreshStats(len(todo), len(gone), len(on_disk) - len(todo), self._rebuilt)
+        self._rebuilt = False
+        return stats
+
+    def _write(self, fn: Any) -> None:
+        self.conn.execute("BEGIN IMMEDIATE")
+        try:
+            fn(self.conn)
+            self.conn.execute("COMMIT")
+        except BaseException:
+            self.conn.execute("ROLLBACK")
+            raise
+
+    def entries(self) -> list[LibraryEntry]:
+        """Every indexed case, by file name."""
+        rows = self.conn.execute(f"SELECT {_LIST_COLUMNS} FROM cases ORDER BY name")
+        return [entry_from_row(self.folder, r) for r in rows]
+
+    def draws(self, names: list[str] | None = None) -> dict[str, list[DrawValues]]:
+        """The stored per-draw numbers of ``names`` (default: every case), for search conditions."""
+        if names is not None and len(names) <= 500:  # SQLite caps the number of parameters
+            marks = ", ".join("?" * len(names))
+            rows = self.conn.execute(
+                f"SELECT name, draws FROM cases WHERE name IN ({marks})", names
+            )
+        else:
+            wanted = None if names is None else set(names)
+            rows = (
+                r
+                for r in self.conn.execute("SELECT name, draws FROM cases WHERE ok=1")
+                if wanted is None or r[0] in wanted
+            )
+        return {n: draws_from_json(d) for n, d in rows}
