@@ -52,7 +52,18 @@ class Plan:
 FULL = Plan(pairs=8, sweeps=300, library_reps=3, memory_reps=3, idle_window=2.0)
 QUICK = Plan(pairs=3, sweeps=60, library_reps=1, memory_reps=2, idle_window=1.0)
 
-_KEY_BYTES = {"tab": b"\t", "enter": b"\r", "escape": b"\x1b", "down": b"\x1b[B", "up": b"\x1b[A"}
+# xterm's bytes for the keys the harness may need (TERM=xterm-256color).
+_KEY_BYTES = {
+    "tab": b"\t",
+    "enter": b"\r",
+    "escape": b"\x1b",
+    "down": b"\x1b[B",
+    "up": b"\x1b[A",
+    "f1": b"\x1bOP",
+    "f2": b"\x1bOQ",
+    "f3": b"\x1bOR",
+    "f4": b"\x1bOS",
+}
 
 
 def key_bytes(key: str) -> bytes:
