@@ -21,8 +21,10 @@ READING: dict[str, dict[str, str]] = {
     "anion_gap_albumin_corrected": {"normal": "normal", "high": "high"},
     "delta_ratio": {
         "pure_normal_gap": "in keeping with a pure normal-gap acidosis",
-        "mixed_high_and_normal_gap": "suggesting a high-gap acidosis combined with a normal-gap "
-        "acidosis",
+        # The 0.4-0.8 band also holds the acidosis of kidney failure (Brandis, Acid-Base
+        # Physiology; clinical-methods sheet section 3), so the words leave both readings open.
+        "mixed_high_and_normal_gap": "in the range of a combined high-gap and normal-gap "
+        "acidosis, also seen in the acidosis of kidney failure",
         "high_gap": "in keeping with an uncomplicated high-gap acidosis",
         "high_gap_plus_alkalosis": "suggesting a high-gap acidosis with an added metabolic "
         "alkalosis (or a pre-existing compensated respiratory acidosis)",
@@ -114,41 +116,67 @@ def value_of(f: Finding) -> str:
 
 
 def band_of(f: Finding) -> str | None:
-    """The finding's expected range, e.g. "24-28 mmHg", when it has one."""
+    """The finding's expected range, e.g. "24-28 mmHg", when it has one.
+
+    Bounds keep one decimal where the unit's whole-number rounding would move them (a Winters band
+    of 28.5-32.5 must not read 28-32).
+    """
     if f.low is None or f.high is None:
         return None
     if not (math.isfinite(f.low) and math.isfinite(f.high)):
         return None
-    lo, hi = fmt_number(f.low, f.unit), fmt_number(f.high, f.unit)
-    return f"{lo}-{hi} {f.unit}".strip()
+
+    def bound(x: float) -> str:
+        text = fmt_number(x, f.unit)
+        return text if float(text) == round(x, 6) else fmt_number(x, f.unit, 1)
+
+    return f"{bound(f.low)}-{bound(f.high)} {f.unit}".strip()
 
 
-def caveats(f: Finding, brief: bool) -> list[str]:
-    """The reasons to print beside a caution or not-valid finding (the first only when brief)."""
+def caveat(f: Finding) -> str | None:
+    """The reason to print beside a caution or not-valid finding: the first one.
+
+    Calculators put the reasons that make a value not valid first, then caveats, then plain
+    readings (workup.indices._common.Judge), so the first reason is the one that explains the
+    status; the rest restate the reading and stay in the assessment.
+    """
     reasons = [tidy(r) for r in f.reasons if tidy(r)]
-    return reasons[:1] if brief else reasons
+    return reasons[0] if reasons else None
 
 
-def clause(f: Finding, label: str, brief: bool, with_reading: bool = True) -> str:
+def _once(text: str | None, seen: set[str] | None) -> str | None:
+    """``text``, or "as above" when the note has already said it (``seen`` is updated)."""
+    if text is None or seen is None:
+        return text
+    if text in seen:
+        return "as above"
+    seen.add(text)
+    return text
+
+
+def clause(
+    f: Finding, label: str, brief: bool, with_reading: bool = True, seen: set[str] | None = None
+) -> str:
     """One clause (no capital, no full stop) stating ``f`` with its validity.
 
-    ``label`` names the index in the sentence, e.g. "the urine anion gap".
+    ``label`` names the index in the sentence, e.g. "the urine anion gap". ``seen`` collects the
+    caveats already written, so a caveat shared by two indices is written once.
     """
     if stated(f):
         words = reading(f) if with_reading else None
-        return f"{label} is {value_of(f)}" + caution_suffix(f, brief, words)
+        return f"{label} is {value_of(f)}" + caution_suffix(f, words, seen)
     if f.status is Status.not_valid:
-        why = caveats(f, brief)
-        return f"{label} was not interpretable" + (f" ({'; '.join(why)})" if why else "")
+        why = _once(caveat(f), seen)
+        return f"{label} was not interpretable" + (f" ({why})" if why else "")
     return unavailable(f, label, brief)
 
 
-def caution_suffix(f: Finding, brief: bool, words: str | None = None) -> str:
+def caution_suffix(f: Finding, words: str | None = None, seen: set[str] | None = None) -> str:
     """The parenthesis after a stated value: its reading and, for a caution, the caveat."""
     inner = [words] if words else []
     if f.status is Status.caution:
-        why = caveats(f, brief)
-        inner.append("read with caution: " + "; ".join(why) if why else "read with caution")
+        why = _once(caveat(f), seen)
+        inner.append(f"read with caution: {why}" if why else "read with caution")
     return f" ({'; '.join(inner)})" if inner else ""
 
 
@@ -164,7 +192,8 @@ def sentence(text: str) -> str:
     text = text.strip()
     if not text:
         return ""
-    text = text[0].upper() + text[1:]
+    if not (len(text) > 1 and text[1].isupper()):  # "pH", "pCO2", "eGFR" keep their case
+        text = text[0].upper() + text[1:]
     return text if text.endswith((".", "?", "!")) else text + "."
 
 

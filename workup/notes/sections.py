@@ -50,6 +50,8 @@ class Context:
     """True for the daily-progress style."""
     said: set[str] = field(default_factory=set)
     """Reasons already written, so the closing caveats do not repeat them."""
+    leads: set[str] = field(default_factory=set)
+    """Long evidence leads already written (see :func:`_evidence`)."""
 
     def finding(self, id: str) -> Finding | None:
         """The assessed draw's finding ``id``, or None when this version does not compute it."""
@@ -60,9 +62,7 @@ class Context:
         f = self.finding(id)
         if f is None:
             return None
-        if f.status in (Status.caution, Status.not_valid):
-            self.said.update(ph.caveats(f, self.brief))
-        return ph.clause(f, label, self.brief, with_reading)
+        return ph.clause(f, label, self.brief, with_reading, self.said)
 
     @property
     def draw(self) -> Draw | None:
@@ -150,19 +150,30 @@ def _expected_clause(c: Context, id: str) -> str | None:
     band = ph.band_of(f)
     if ph.stated(f) and band is not None:
         # The expected range is the number that matters here; the midpoint adds nothing.
-        if f.status is Status.caution:
-            c.said.update(ph.caveats(f, c.brief))
-        return f"{label} is {band}" + ph.caution_suffix(f, c.brief)
+        return f"{label} is {band}" + ph.caution_suffix(f, None, c.said)
     return c.clause(id, label, with_reading=False)
 
 
+LONG_LEAD = 80
+"""An evidence lead longer than this is written in full once and shortened after that."""
+
+
 def _evidence(ev: tuple[Evidence, ...], c: Context, limit: int | None = None) -> str:
+    """Evidence texts as the analysis wrote them, joined; a long lead already written is cut.
+
+    The ranker writes one reading (say the ammonium verdict) as the lead of an item for each
+    cause it bears on, "<reading>: <what it means for this cause>"; repeating the whole reading
+    under every cause buries the point, so the second time only its first clause is kept.
+    """
     picked = ev if limit is None else ev[:limit]
     out = []
     for e in picked:
         text = ph.tidy(e.text)
-        if e.draw and e.draw != c.a.draw_label:
-            text += f' ("{e.draw}" draw)'
+        lead, sep, why = text.rpartition(": ")
+        if sep and len(lead) > LONG_LEAD:
+            if lead in c.leads:
+                text = f"{lead.split('; ')[0]}, as above: {why}"
+            c.leads.add(lead)
         out.append(text)
     return "; ".join(out)
 
@@ -181,19 +192,19 @@ def acid_base_section(c: Context) -> Section:
     s = Section("acid_base", "Acid-base")
     hh = c.finding("henderson_hasselbalch_ph")
     if hh is not None and hh.status is Status.not_valid:
-        why = ph.caveats(hh, c.brief)
-        c.said.update(why)
+        why = ph.caveat(hh)
+        c.said.add(why or "")
         s.sentences.append(
             "The gas values do not agree with each other on the Henderson-Hasselbalch check"
-            + (f" ({'; '.join(why)})" if why else "")
+            + (f" ({why})" if why else "")
             + ", so the reading below is provisional until the sample is checked."
         )
     elif hh is not None and hh.status is Status.caution:
-        why = ph.caveats(hh, c.brief)
-        c.said.update(why)
+        why = ph.caveat(hh)
+        c.said.add(why or "")
         s.sentences.append(
             "The Henderson-Hasselbalch check shows a small mismatch"
-            + (f" ({'; '.join(why)})" if why else "")
+            + (f" ({why})" if why else "")
             + "."
         )
     elif hh is not None and hh.status is Status.ok and not c.brief:
@@ -216,7 +227,7 @@ def acid_base_section(c: Context) -> Section:
         s.sentences.append(ph.sentence(text))
         s.sentences.extend(_compensation(c, d))
     if added:
-        names = [_disorder_name(d) for d in added]
+        names = [_article(_disorder_name(d)) for d in added]
         lead = "There is also " if primary else "Disorders found: "
         if c.brief:
             s.sentences.append(ph.sentence(lead + _and(names)))
@@ -245,6 +256,19 @@ def _compensation(c: Context, d: Disorder) -> list[str]:
     return []
 
 
+def _lower(text: str) -> str:
+    """``text`` with a lower-case first letter unless it starts an abbreviation ("FEHCO3")."""
+    if len(text) > 1 and not text[1].isupper():
+        return text[0].lower() + text[1:]
+    return text
+
+
+def _article(name: str) -> str:
+    """ "Metabolic alkalosis" -> "a metabolic alkalosis", for the middle of a sentence."""
+    name = _lower(name)
+    return ("an " if name[0] in "aeiou" else "a ") + name
+
+
 def _and(items: list[str]) -> str:
     if len(items) <= 1:
         return "".join(items)
@@ -255,6 +279,12 @@ def _and(items: list[str]) -> str:
 # gaps
 
 
+METABOLIC_ACIDOSES = frozenset(
+    {"normal_gap_metabolic_acidosis", "high_gap_metabolic_acidosis", "metabolic_acidosis"}
+)
+"""Disorder ids of a metabolic acidosis (docs: workup.findings.Disorder)."""
+
+
 def gaps_section(c: Context) -> Section:
     """Anion gap, its albumin-corrected value, the delta ratio and (consult) the osmolal gap."""
     s = Section("gaps", "Gaps")
@@ -263,7 +293,9 @@ def gaps_section(c: Context) -> Section:
     if corrected is not None and (not c.brief or corrected.status is not Status.needs_input):
         parts.append(c.clause("anion_gap_albumin_corrected", "the albumin-corrected gap"))
     delta = c.finding("delta_ratio")
-    if delta is not None and delta.status is not Status.needs_input:
+    # The delta ratio only means something alongside a metabolic acidosis.
+    acidosis = any(d.id in METABOLIC_ACIDOSES for d in c.a.disorders)
+    if delta is not None and acidosis and delta.status is not Status.needs_input:
         parts.append(c.clause("delta_ratio", "the delta ratio"))
     osm = c.finding("serum_osmolal_gap")
     if osm is not None and not c.brief and osm.status is not Status.needs_input:
@@ -312,6 +344,8 @@ def renal_acid_section(c: Context) -> Section:
             continue
         if c.brief and id == "urine_ammonium_estimate" and not f.extra.get("measured"):
             continue  # the daily note keeps the osmolal gap it was estimated from
+        if c.brief and id == "urine_ammonium_creatinine_ratio" and parts:
+            continue  # one ammonium measure is enough for a daily note
         parts.append(c.clause(id, label or _ammonium_label(f)))
     parts = [p for p in parts if p]
     if parts:
@@ -353,10 +387,10 @@ _KALEMIA_WORD = {"hypo": "low", "normal": "normal", "hyper": "high"}
 
 # How a TTKG or urine K/creatinine reading reads against the serum potassium state.
 _K_READING = {
-    ("hypo", "low"): "appropriately low for the hypokalemia (renal conservation)",
-    ("hypo", "high"): "inappropriately high for the hypokalemia (renal potassium loss)",
-    ("hyper", "low"): "inappropriately low for the hyperkalemia (reduced aldosterone effect: "
-    "deficiency or resistance)",
+    ("hypo", "low"): "appropriately low for the hypokalemia: the kidney is conserving potassium",
+    ("hypo", "high"): "inappropriately high for the hypokalemia: a renal potassium loss",
+    ("hyper", "low"): "inappropriately low for the hyperkalemia: a reduced aldosterone effect, "
+    "from deficiency or resistance",
     ("hyper", "high"): "appropriately high for the hyperkalemia",
 }
 
@@ -391,9 +425,7 @@ def _k_clause(c: Context, id: str, label: str, kalemia: str | None) -> str | Non
     words = _K_READING.get((kalemia or "", f.interpretation or ""))
     if words is None:
         return c.clause(id, label)
-    if f.status is Status.caution:
-        c.said.update(ph.caveats(f, c.brief))
-    return f"{label} is {ph.value_of(f)}" + ph.caution_suffix(f, c.brief, words)
+    return f"{label} is {ph.value_of(f)}" + ph.caution_suffix(f, words, c.said)
 
 
 def potassium_section(c: Context) -> Section:
@@ -409,10 +441,14 @@ def potassium_section(c: Context) -> Section:
             f"Serum potassium {written_number(Panel.serum, 'potassium', m)} {m.unit} is "
             f"{_KALEMIA_WORD[kalemia or 'normal']}."
         )
-    parts = [
-        _k_clause(c, "ttkg", "the TTKG", kalemia),
-        _k_clause(c, "urine_potassium_creatinine_ratio", "the urine K/creatinine ratio", kalemia),
-    ]
+    ratio = _k_clause(
+        c, "urine_potassium_creatinine_ratio", "the urine K/creatinine ratio", kalemia
+    )
+    ratio_f = c.finding("urine_potassium_creatinine_ratio")
+    if c.brief and ratio is not None and ratio_f is not None and ph.stated(ratio_f):
+        parts = [ratio]  # one measure of potassium handling is enough for a daily note
+    else:
+        parts = [_k_clause(c, "ttkg", "the TTKG", kalemia), ratio]
     parts = [p for p in parts if p]
     if parts:
         s.sentences.append(ph.sentence(ph.join_clauses(parts)))
@@ -466,7 +502,12 @@ def causes_section(c: Context) -> Section:
     """The ranked causes of a normal-gap acidosis, with the evidence for and against."""
     s = Section("causes", "Causes")
     for note in c.a.ranking_notes:
+        if c.brief and note.startswith("Ammonium:"):
+            continue  # the daily note's renal line already says which ammonium reading counts
         s.sentences.append(ph.sentence(ph.tidy(note)))
+        _head, sep, rest = ph.tidy(note).partition(": ")
+        if sep:
+            c.leads.add(rest)  # a reading the notes state in full is shortened under each cause
     calls = c.a.patterns
     if not calls:
         if not c.a.ranking_notes:
@@ -536,7 +577,9 @@ def next_tests_section(c: Context) -> Section:
     tests = c.a.next_tests[:3] if c.brief else c.a.next_tests
     if c.brief:
         if tests:
-            s.sentences.append(ph.sentence("; ".join(ph.tidy(t.text) for t in tests)))
+            texts = [ph.tidy(t.text) for t in tests]
+            texts = texts[:1] + [_lower(t) for t in texts[1:]]
+            s.sentences.append(ph.sentence("; ".join(texts)))
         return s
     for t in tests:
         s.items.append(f"{ph.tidy(t.text)}: {ph.tidy(t.why)}." if t.why else ph.sentence(t.text))
@@ -547,8 +590,16 @@ def caveats_section(c: Context) -> Section:
     """Case-specific cautions (entered values, gas sample) not already stated above."""
     s = Section("caveats", "Caveats")
     standing = set(CAUTION_LINES)
+    # The assessment also lists the first reason of every not-valid index; those that matter
+    # were stated beside their index, and the rest (a compensation rule that does not apply to
+    # this disorder) would only crowd the note.
+    index_reasons = {
+        ph.tidy(f.reasons[0])
+        for f in c.a.indices.values()
+        if f.status is Status.not_valid and f.reasons
+    }
     for text in c.a.cautions:
-        if text in standing or ph.tidy(text) in c.said:
+        if text in standing or ph.tidy(text) in c.said or ph.tidy(text) in index_reasons:
             continue
         s.sentences.append(ph.sentence(ph.tidy(text)))
     return s
