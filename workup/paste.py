@@ -382,7 +382,7 @@ def _read_line(
             found, asked, probs = _measure(panel, key, reading, units)
             units_asked = units_asked or asked
             problems += probs
-            options += [Entry(panel, key, m, src, label, cells.flags) for m in found]
+            options += [Entry(panel.value, key, m, src, label, cells.flags) for m in found]
     options = _dedupe(options)
     if not options:
         reason = "; ".join(dict.fromkeys(problems)) or "no value could be read"
