@@ -22,7 +22,9 @@ KDIGO = {"G1", "G2", "G3a", "G3b", "G4", "G5"}
 def _contract() -> dict[str, tuple[str, set[str]]]:
     rows: dict[str, tuple[str, set[str]]] = {}
     previous: set[str] = set()
-    for line in DOC.read_text(encoding="utf-8").splitlines():
+    # Only the first table is the contract; later tables (validity) reuse the id column.
+    text = DOC.read_text(encoding="utf-8").split("\n## ")[0]
+    for line in text.splitlines():
         m = re.match(r"^\| `([a-z0-9_]+)` \| ([^|]*) \| ([^|]*) \|", line)
         if not m:
             continue

@@ -239,3 +239,14 @@ def test_urine_ph_during_furosemide_test_reads_against_5_3():
     assert (f.status, f.interpretation) == (Status.ok, "not_acidified")
     y = DrawInputs(urine={"ph": 5.2}, during=LoadingTest.furosemide_fludrocortisone)
     assert urine_acid.urine_ph(y).interpretation == "acidified"
+
+
+def test_urine_ph_above_5_5_with_a_negative_uag_is_a_caution():
+    # Batlle et al., NEJM 1988: diarrhea, urine pH 5.64 ± 0.14 with UAG −20 ± 5.7: ample ammonium
+    # raises urine pH, so the high pH is no sign of distal RTA even without a diarrhea flag.
+    f = urine_acid.urine_ph(draw({"ph": 5.64, "sodium": 50, "potassium": 20, "chloride": 90}))
+    assert f.status is Status.caution and "ammonium" in f.reasons[0]
+    positive = urine_acid.urine_ph(
+        draw({"ph": 5.64, "sodium": 50, "potassium": 20, "chloride": 40})
+    )
+    assert positive.status is Status.ok

@@ -87,6 +87,12 @@ def urine_ph(x: DrawInputs) -> Finding:
                 "with diarrhea, a high ammonium excretion can hold urine pH above 5.5 (Batlle "
                 "1988: 5.64 ± 0.14); check the urine anion or osmolal gap"
             )
+        if not test and _ammonium_looks_high(x):
+            j.caution(
+                "the urine anion or osmolal gap shows plenty of ammonium, which buffers urine pH "
+                "upward (as in diarrhea, Batlle 1988); a pH above 5.5 is then no sign of a "
+                "distal defect"
+            )
         if uph > s.urine_ph_bicarbonaturia and not test:
             j.note(
                 f"above {fmt(s.urine_ph_bicarbonaturia)} also fits bicarbonaturia, as in proximal "
@@ -100,6 +106,16 @@ def urine_ph(x: DrawInputs) -> Finding:
     return finding(
         (fid, name, "", formula, UPH_SOURCE), uph, j, "acidified" if acidified else "not_acidified"
     )
+
+
+def _ammonium_looks_high(x: DrawInputs) -> bool:
+    """True when a negative urine anion gap or an adequate osmolal gap shows ample ammonium."""
+    u, s = x.urine, x.settings
+    has_uag = all(k in u for k in ("sodium", "potassium", "chloride"))
+    if has_uag and u["sodium"] + u["potassium"] - u["chloride"] <= s.uag_negative_below:
+        return True
+    gap, _, _ = _uog(x)
+    return gap is not None and gap > s.uog_high_above
 
 
 def _gap_reading(value: float, x: DrawInputs) -> str:
