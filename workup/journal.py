@@ -20,6 +20,7 @@ from pathlib import Path
 from typing import Any
 
 from workup.caseio import CaseFileError, case_to_data
+from workup.equivalence import same_case
 from workup.locking import current_holder, current_user
 from workup.migrations import case_from_bytes_migrated, case_from_data_migrated
 from workup.model import Case
@@ -94,7 +95,7 @@ class Draft:
         if now is None:
             return False
         try:
-            return case_from_bytes_migrated(now[0], str(self.case_path)) == self.case
+            return same_case(case_from_bytes_migrated(now[0], str(self.case_path)), self.case)
         except CaseFileError:
             return False
 

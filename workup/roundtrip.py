@@ -24,6 +24,7 @@ from ruamel.yaml.scalarstring import LiteralScalarString
 
 from workup.analytes import CATALOGUE, Panel, UnitSystem, analyte
 from workup.caseio import CaseFileError, case_from_text, case_to_data
+from workup.equivalence import same_case
 from workup.model import Case
 from workup.quantity import ValueProblem, read_value
 
@@ -78,7 +79,7 @@ def roundtrip_text(old_text: str, case: Case) -> str:
     tidy = "\n".join(line.rstrip() for line in text.split("\n"))
     for candidate in (_rewrap_flow(tidy), tidy, text):
         try:
-            if case_from_text(candidate) == case:
+            if same_case(case_from_text(candidate), case):
                 return candidate
         except CaseFileError:
             continue

@@ -20,6 +20,7 @@ from dataclasses import dataclass
 from pathlib import Path
 
 from workup.caseio import CaseFileError, Problem, dump_case
+from workup.equivalence import same_case
 from workup.journal import (
     Draft,
     case_key,
@@ -210,7 +211,7 @@ class CaseSession:
         d = draft_for(self.path)
         if d is None:
             return
-        if d.case is not None and d.case == self.case:
+        if d.case is not None and same_case(d.case, self.case):
             discard_draft(d)  # it holds nothing that is not on disk
             return
         # Our own journal writes to the same draft file: move the left-over edits out of its way.
@@ -230,7 +231,7 @@ class CaseSession:
     @property
     def dirty(self) -> bool:
         """Whether the current case differs from the version on disk."""
-        return self.case != self._saved
+        return not same_case(self.case, self._saved)
 
     def disk_changed(self) -> bool:
         """Whether the file on disk differs from the version this session read or wrote."""
@@ -249,9 +250,9 @@ class CaseSession:
         self.case = case
         if self.read_only:
             return False
-        if self._journaled is not None and case == self._journaled:
+        if self._journaled is not None and same_case(case, self._journaled):
             return False
-        if case == self._saved:
+        if same_case(case, self._saved):
             if self._journaled is not None:
                 discard_draft(draft_path(self.path))
             self._journaled = case
