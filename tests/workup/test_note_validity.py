@@ -238,3 +238,67 @@ def test_cli_rejects_an_unknown_style(capsys) -> None:
     with pytest.raises(SystemExit) as exc:
         main(["note", str(ROOT / "cases" / "gi-loss-diarrhea.yaml"), "--style", "long"])
     assert exc.value.code == 2
+
+
+# --- wording that keeps the note readable without losing a caveat ------------------------------
+
+
+def test_ascii_text_makes_typographic_punctuation_plain() -> None:
+    from workup.notes.render import ascii_text
+
+    assert ascii_text("pH \u2265 7.6 \u2013 \u03b22 \u00d7 2, \u22125, Sj\u00f6gren") == (
+        "pH >= 7.6 - beta2 x 2, -5, Sjogren"
+    )
+
+
+def test_a_shared_caveat_is_written_in_full_before_any_as_above(diarrhea) -> None:
+    case, a = diarrhea
+    why = "an invented caveat shared by two indices"
+    ttkg = Finding("ttkg", "TTKG", 2.0, "", Status.caution, (why,), interpretation="low",
+                   extra={"kalemia": "hypo"})  # fmt: skip
+    ratio = Finding("urine_potassium_creatinine_ratio", "UK/UCr", 1.2, "mmol/mmol",
+                    Status.caution, (why,), interpretation="low",
+                    extra={"kalemia": "hypo"})  # fmt: skip
+    note = _flat(draft_note(_with(a, ttkg, ratio), case, "full"))
+    assert note.count(why) == 1
+    later = (
+        "the urine K/creatinine ratio is 1.2 mmol/mmol (appropriately low for the hypokalemia: "
+        "the kidney is conserving potassium; read with caution: as above)"
+    )
+    assert note.index("TTKG is 2.00") < note.index(why) < note.index(later)
+
+
+def test_delta_ratio_is_written_only_beside_a_metabolic_acidosis() -> None:
+    # Demo G (invented): the low bicarbonate is compensation, so a delta ratio means nothing.
+    alk = load_case(ROOT / "cases" / "respiratory-alkalosis-chronic.yaml")
+    a = assess(alk)
+    assert "delta_ratio" in a.indices
+    assert "delta ratio" not in draft_note(a, alk, "full")
+    # Demo H (invented): a high-gap acidosis, where the delta ratio is the point.
+    mixed = load_case(ROOT / "cases" / "mixed-ketoacidosis-saline.yaml")
+    assert "delta ratio is" in _flat(draft_note(assess(mixed), mixed, "brief"))
+
+
+def test_a_venous_gas_is_named_and_its_caution_kept() -> None:
+    raw = (
+        b"schema: 1\nlabel: Test - venous gas\nunits: conventional\ndraws:\n  - label: one\n"
+        b"    serum: {sodium: 138, potassium: 4.0, chloride: 112, bicarbonate: 16}\n"
+        b"    blood_gas: {ph: 7.31, pco2: 34 mmHg, sample: venous}\n"
+    )
+    case = case_from_bytes(raw)
+    for style in STYLES:
+        note = _flat(draft_note(assess(case), case, style))
+        assert "venous gas pH 7.31" in note
+        assert "the gas is venous; the compensation rules were derived on arterial blood" in note
+
+
+def test_long_evidence_is_shortened_only_after_it_was_written_in_full() -> None:
+    case = load_case(ROOT / "cases" / "type4-hypoaldosteronism.yaml")
+    a = assess(case)
+    note = _flat(draft_note(a, case, "full"))
+    if ", as above:" not in note:
+        pytest.skip("no evidence lead repeats across causes in this ranking")
+    first_short = note.index(", as above:")
+    head = note[:first_short].rsplit("; ", 1)[-1].split(": ")[-1]
+    lead = head.split(", as above")[0]
+    assert note.index(lead) < first_short

@@ -441,14 +441,17 @@ def potassium_section(c: Context) -> Section:
             f"Serum potassium {written_number(Panel.serum, 'potassium', m)} {m.unit} is "
             f"{_KALEMIA_WORD[kalemia or 'normal']}."
         )
-    ratio = _k_clause(
-        c, "urine_potassium_creatinine_ratio", "the urine K/creatinine ratio", kalemia
-    )
-    ratio_f = c.finding("urine_potassium_creatinine_ratio")
-    if c.brief and ratio is not None and ratio_f is not None and ph.stated(ratio_f):
-        parts = [ratio]  # one measure of potassium handling is enough for a daily note
+    if draw is not None and not draw.urine.measurements():
+        return s  # the renal section already says no urine was entered
+    ratio_id, ratio_label = "urine_potassium_creatinine_ratio", "the urine K/creatinine ratio"
+    ratio_f = c.finding(ratio_id)
+    if c.brief and ratio_f is not None and ph.stated(ratio_f):
+        # One measure of potassium handling is enough for a daily note.
+        parts = [_k_clause(c, ratio_id, ratio_label, kalemia)]
     else:
-        parts = [_k_clause(c, "ttkg", "the TTKG", kalemia), ratio]
+        # In reading order, so that a caveat shared by both is written in full first.
+        ttkg = _k_clause(c, "ttkg", "the TTKG", kalemia)
+        parts = [ttkg, _k_clause(c, ratio_id, ratio_label, kalemia)]
     parts = [p for p in parts if p]
     if parts:
         s.sentences.append(ph.sentence(ph.join_clauses(parts)))
@@ -559,7 +562,14 @@ def _causes_full(c: Context, calls: list[PatternCall]) -> list[str]:
         if p.missing:
             out.append(ph.sentence("Not yet known: " + ", ".join(ph.tidy(m) for m in p.missing)))
     unlikely = [p for p in calls if p.verdict is Verdict.unlikely]
-    if unlikely:
+    shared = {p.against[0].text if p.against else "" for p in unlikely}
+    if len(unlikely) > 1 and len(shared) == 1 and "" not in shared:
+        # One reason rules them all out (no normal-gap acidosis at all): say it once.
+        why = ph.tidy(shared.pop())
+        out.append(
+            ph.sentence(f"Considered unlikely ({why}): " + ", ".join(p.name for p in unlikely))
+        )
+    elif unlikely:
         parts = [
             f"{p.name} ({_evidence(p.against, c, 1)})" if p.against else p.name for p in unlikely
         ]
