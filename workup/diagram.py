@@ -193,6 +193,29 @@ class Point:
         return PH_RANGE[0] <= self.ph <= PH_RANGE[1] and HCO3_RANGE[0] <= self.hco3 <= HCO3_RANGE[1]
 
 
+def point_for(
+    ph: float | None,
+    gas_hco3: float | None,
+    serum_hco3: float | None,
+    pco2: float | None,
+    label: str = "",
+) -> tuple[Point | None, str]:
+    """The draw's point and where its bicarbonate came from, or (None, what is missing).
+
+    The gas analyzer's bicarbonate is paired with the gas pH first because both come from one
+    sample; then the value computed from pH and pCO2; serum total CO2 (a separate sample) last.
+    """
+    if ph is None:
+        return None, "enter the gas pH to place the draw"
+    if gas_hco3 is not None:
+        return Point(ph, gas_hco3, label), "gas bicarbonate"
+    if pco2 is not None:
+        return Point(ph, float(hco3_on_isobar(ph, pco2)), label), "bicarbonate from pH and pCO2"
+    if serum_hco3 is not None:
+        return Point(ph, serum_hco3, label), "serum total CO2"
+    return None, "enter the gas pCO2 or a bicarbonate to place the draw"
+
+
 def bands_containing(point: Point, settings: Settings = DEFAULTS) -> list[Band]:
     """The bands the point lies in (geometry only; the disorder analysis gives the meaning)."""
     return [b for b in bands(settings) if bool(b.contains(point.ph, point.hco3)[0])]

@@ -113,3 +113,14 @@ def test_point_off_the_plane_is_not_drawn() -> None:
     r = d.raster(60, 16, d.Point(6.70, 3.0))
     assert d.MARK not in "".join(r.lines())
     assert not d.Point(6.70, 3.0).on_plane
+
+
+def test_point_prefers_gas_bicarbonate_then_computed_then_serum() -> None:
+    p, src = d.point_for(7.31, 14.0, 15.0, 30.0)
+    assert p is not None and p.hco3 == 14.0 and src == "gas bicarbonate"
+    p, src = d.point_for(7.40, None, 15.0, 40.0)
+    assert p is not None and p.hco3 == pytest.approx(23.94, abs=0.01) and "pCO2" in src
+    p, src = d.point_for(7.31, None, 15.0, None)
+    assert p is not None and p.hco3 == 15.0 and src == "serum total CO2"
+    p, src = d.point_for(None, 14.0, 15.0, 30.0)
+    assert p is None and "pH" in src

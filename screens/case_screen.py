@@ -1,0 +1,876 @@
+"""The case workspace: enter a draw in chart order, and read its findings, causes and diagram.
+
+The screen keeps a working copy of the case. Every accepted change goes into that copy and the
+assessment is recomputed from it at once (``workup.assess.assess`` is fast); a refused value is
+kept as text beside the field, never in the case, and is reported before saving.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Callable
+from datetime import datetime
+from pathlib import Path
+from typing import Any
+
+from pydantic import ValidationError
+from rich.text import Text
+from textual import on
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, VerticalScroll
+from textual.screen import Screen
+from textual.widgets import (
+    Footer,
+    Input,
+    Select,
+    SelectionList,
+    Static,
+    TabbedContent,
+    TabPane,
+)
+
+from screens import persistence
+from screens.davenport import DavenportView, band_rules_text
+from screens.dialogs import AskScreen, ChoiceScreen
+from screens.entry import (
+    SECTIONS,
+    FieldReading,
+    ValueField,
+    default_unit,
+    read_field,
+    shown_text,
+    unit_choices,
+)
+from screens.findings_view import CausesView, FindingsView
+from workup import diagram
+from workup.analytes import Panel, UnitSystem
+from workup.assess import Assessment, assess
+from workup.cautions import CAUTION_LINES, CAUTION_SHORT
+from workup.context import MEANING, Flag
+from workup.model import Case, Draw, GasSample, LoadingTest, Patient, Sex
+from workup.quantity import Measurement, convert
+
+TABS = (
+    ("f2", "tab-draw", "Draw"),
+    ("f3", "tab-case", "Case"),
+    ("f4", "tab-findings", "Findings"),
+    ("f5", "tab-causes", "Causes"),
+    ("f6", "tab-diagram", "Diagram"),
+)
+
+NO_TEST = "none"
+
+
+def _same(a: Measurement | None, b: Measurement | None) -> bool:
+    if a is None or b is None:
+        return a is b
+    return (a.value, a.unit, a.word) == (b.value, b.unit, b.word)
+
+
+def _input(value: str, id_: str, max_length: int) -> Input:
+    return Input(value, id=id_, compact=True, max_length=max_length)
+
+
+def _select(options: list[tuple[str, Any]], value: Any, id_: str) -> Select:
+    return Select(options, value=value, id=id_, allow_blank=False, compact=True)
+
+
+def _meta(name: str, widget: Any, state_id: str) -> Horizontal:
+    return Horizontal(
+        Static(name, classes="field-name"),
+        widget,
+        Static("", id=state_id, classes="meta-state"),
+        classes="field-row meta-row",
+    )
+
+
+class CaseScreen(Screen[None]):
+    """One case: draws to enter, findings to read, notes to draft."""
+
+    BINDINGS = [
+        Binding("ctrl+s", "save", "Save", id="save"),
+        Binding("ctrl+n", "new_draw", "New draw", id="new_draw"),
+        Binding("ctrl+t", "next_unit", "Unit", id="next_unit", show=False),
+        Binding("f7", "note", "Note", id="note"),
+        Binding("f8", "paste", "Paste labs", id="paste", show=False),
+        Binding("f9", "trends", "Trends", id="trends", show=False),
+        Binding("ctrl+o", "close", "Library", id="close"),
+        Binding("ctrl+pageup", "previous_draw", "Previous draw", show=False),
+        Binding("ctrl+pagedown", "next_draw", "Next draw", show=False),
+        *(Binding(k, f"tab('{tid}')", name, show=False) for k, tid, name in TABS),
+    ]
+
+    def __init__(
+        self,
+        case: Case,
+        path: Path | None,
+        cases_dir: Path,
+        clock: Callable[[], datetime],
+        overrides: dict[str, float] | None = None,
+        dirty: bool = False,
+    ) -> None:
+        super().__init__()
+        self.case = case
+        self.path = path
+        self.cases_dir = cases_dir
+        self.clock = clock
+        self.overrides = overrides or {}
+        self.dirty = dirty
+        if not self.case.draws:
+            self.case.draws.append(self._fresh_draw())
+        self.index = len(case.draws) - 1
+        self.assessment: Assessment | None = None
+        self.error: str | None = None
+        # Refused text by (draw index, panel, key): shown again, never saved silently.
+        self.pending: dict[tuple[int, Panel, str], str] = {}
+        self.readings: dict[tuple[Panel, str], FieldReading] = {}
+        self.meta_problems: dict[str, str] = {}
+        self._fields: dict[tuple[Panel, str], ValueField] = {}
+        self._focused: ValueField | None = None
+
+    # ----------------------------------------------------------------- layout
+
+    # fmt: off
+    def compose(self) -> ComposeResult:
+        c, d = self.case, self.draw
+        taken = d.taken.isoformat(timespec="minutes") if d.taken else ""
+        tests = [("no loading test", NO_TEST)] + [
+            (t.value.replace("_", " "), t.value) for t in LoadingTest
+        ]
+        yield Static("", id="titlebar")
+        with TabbedContent(id="tabs", initial="tab-draw"):
+            with TabPane("F2 Draw", id="tab-draw"):
+                with VerticalScroll(id="entry"):
+                    yield _meta("draw", _select(self._draw_options(), self.index, "draw-select"),
+                                "draw-count")
+                    yield _meta("draw label", _input(d.label, "meta-label", 80), "st-label")
+                    yield _meta("taken (2026-11-30T08:15)", _input(taken, "meta-taken", 30),
+                                "st-taken")
+                    yield _meta("during loading test",
+                                _select(tests, d.during.value if d.during else NO_TEST,
+                                        "meta-during"), "st-during")
+                    for title, fields in SECTIONS:
+                        yield Static(title, classes="section")
+                        if title == "Blood gas":
+                            yield _meta("gas sample",
+                                        _select([(s.value, s.value) for s in GasSample],
+                                                d.blood_gas.sample.value, "meta-sample"),
+                                        "st-sample")
+                        for panel, key in fields:
+                            field = ValueField(panel, key)
+                            self._fields[(panel, key)] = field
+                            yield field
+                    yield Static("Draw notes", classes="section")
+                    yield _meta("notes", _input(d.notes or "", "meta-notes", 500), "st-notes")
+                yield Static("", id="field-help")
+            with TabPane("F3 Case", id="tab-case"), VerticalScroll(id="case-form"):
+                yield _meta("case label", _input(c.label, "case-label", 120), "st-clabel")
+                units = [("not set: write units", "none"), ("conventional (mg/dL)", "conventional"),
+                         ("SI (mmol/L)", "si")]
+                yield _meta("unit system",
+                            _select(units, c.units.value if c.units else "none", "case-units"),
+                            "st-units")
+                age = "" if c.patient.age is None else str(c.patient.age)
+                yield _meta("age (years)", _input(age, "case-age", 3), "st-age")
+                sexes = [("not given", "none"), ("female", "female"), ("male", "male")]
+                yield _meta("sex",
+                            _select(sexes, c.patient.sex.value if c.patient.sex else "none",
+                                    "case-sex"), "st-sex")
+                yield _meta("weight (70 kg, 154 lb)",
+                            _input(c.patient.weight or "", "case-weight", 20), "st-weight")
+                yield _meta("case notes", _input(c.notes or "", "case-notes", 2000), "st-cnotes")
+                yield Static("Clinical context (Space toggles a flag)", classes="section")
+                yield SelectionList[str](
+                    *[(f"{f.value.replace('_', ' ')}: {MEANING[f]}", f.value, f in c.context)
+                      for f in Flag],
+                    id="case-context",
+                    compact=True,
+                )
+            with TabPane("F4 Findings", id="tab-findings"):
+                yield FindingsView(id="findings")
+            with TabPane("F5 Causes", id="tab-causes"):
+                yield CausesView(id="causes")
+            with TabPane("F6 Diagram", id="tab-diagram"):
+                yield DavenportView(id="davenport")
+        yield Static("", id="caution-line")
+        yield Footer()
+    # fmt: on
+
+    def on_mount(self) -> None:
+        self._load_draw()
+        self._recompute()
+        self.query_one("#in-serum-sodium", Input).focus()
+
+    # ----------------------------------------------------------------- state
+
+    @property
+    def draw(self) -> Draw:
+        """The draw being entered."""
+        return self.case.draws[self.index]
+
+    def _draw_options(self) -> list[tuple[str, int]]:
+        return [(f"{i + 1}. {x.label}", i) for i, x in enumerate(self.case.draws)]
+
+    def _fresh_draw(self) -> Draw:
+        labels = {d.label for d in self.case.draws}
+        n = len(self.case.draws) + 1
+        while f"draw {n}" in labels:
+            n += 1
+        taken = self.clock().replace(second=0, microsecond=0)
+        return Draw(label=f"draw {n}", taken=taken)
+
+    def _mark_dirty(self) -> None:
+        self.dirty = True
+        self._update_title()
+
+    def _update_title(self) -> None:
+        where = self.path.name if self.path else "not saved yet"
+        mark = "* UNSAVED" if self.dirty else "saved"
+        self.query_one("#titlebar", Static).update(
+            f"{mark} | {self.case.label} | draw {self.index + 1}/{len(self.case.draws)}: "
+            f"{self.draw.label} | {where}"
+        )
+
+    def _system(self) -> UnitSystem | None:
+        return self.case.units
+
+    def _load_case_fields(self) -> None:
+        c = self.case
+        self._set_input("#case-label", c.label)
+        self._set_select("#case-units", c.units.value if c.units else "none")
+        self._set_input("#case-age", "" if c.patient.age is None else str(c.patient.age))
+        self._set_select("#case-sex", c.patient.sex.value if c.patient.sex else "none")
+        self._set_input("#case-weight", c.patient.weight or "")
+        self._set_input("#case-notes", c.notes or "")
+        sel = self.query_one("#case-context", SelectionList)
+        with self._quiet():
+            sel.deselect_all()
+            for f in c.context:
+                sel.select(f.value)
+
+    def _quiet(self):
+        # Values the screen sets itself must not come back as edits: a late Changed message
+        # would otherwise be applied to whichever draw is showing when it arrives.
+        return self.prevent(Input.Changed, Select.Changed, SelectionList.SelectedChanged)
+
+    def _set_input(self, selector: str, text: str) -> None:
+        w = self.query_one(selector, Input)
+        if w.value != text:
+            with self._quiet():
+                w.value = text
+
+    def _set_select(self, selector: str, value: str) -> None:
+        w = self.query_one(selector, Select)
+        if w.value != value:
+            with self._quiet():
+                w.value = value
+
+    def _load_draw(self) -> None:
+        """Fill the form from the current draw (and the refused text kept for it)."""
+        d = self.draw
+        select = self.query_one("#draw-select", Select)
+        with self._quiet():
+            select.set_options(self._draw_options())
+            select.value = self.index
+        self.query_one("#draw-count", Static).update(
+            f"{self.index + 1} of {len(self.case.draws)}  (Ctrl+PgUp/PgDn)"
+        )
+        self.meta_problems.clear()
+        self._set_input("#meta-label", d.label)
+        self._set_input("#meta-taken", d.taken.isoformat(timespec="minutes") if d.taken else "")
+        self._set_select("#meta-during", d.during.value if d.during else NO_TEST)
+        self._set_select("#meta-sample", d.blood_gas.sample.value)
+        self._set_input("#meta-notes", d.notes or "")
+        for st in ("st-label", "st-taken"):
+            self.query_one(f"#{st}", Static).update("")
+        for (panel, key), field in self._fields.items():
+            m = getattr(d.panel(panel), key)
+            if m is not None:
+                unit, text = m.unit, shown_text(m)
+            else:
+                unit = self._unit_for(field)
+                text = self.pending.get((self.index, panel, key), "")
+            field.show_unit(unit)
+            if field.input.value != text:
+                with self._quiet():
+                    field.input.value = text
+            reading = read_field(field.analyte, text, unit, self._system())
+            self.readings[(panel, key)] = reading
+            field.show_reading(reading)
+        self._update_title()
+        self._update_help()
+
+    def _unit_for(self, field: ValueField) -> str | None:
+        # Keep a unit the fellow chose for this analyte; otherwise the case default.
+        if field.unit is not None and field.unit in unit_choices(field.analyte):
+            return field.unit
+        return default_unit(field.analyte, self._system())
+
+    # ----------------------------------------------------------------- editing
+
+    @on(Input.Changed, ".field-input")
+    def _value_changed(self, event: Input.Changed) -> None:
+        if event.value != event.input.value:
+            return  # superseded by a later value of the same input
+        field = next(a for a in event.input.ancestors if isinstance(a, ValueField))
+        self._apply_field(field, event.value)
+
+    def _apply_field(self, field: ValueField, text: str) -> None:
+        reading = read_field(field.analyte, text, field.unit, self._system())
+        key = (self.index, field.panel, field.key)
+        if reading.problem:
+            self.pending[key] = text
+        else:
+            self.pending.pop(key, None)
+        m = reading.measurement
+        if m is not None and m.unit != field.unit and not m.word:
+            field.show_unit(m.unit)
+        self.readings[(field.panel, field.key)] = reading
+        field.show_reading(reading)
+        panel = self.draw.panel(field.panel)
+        if not _same(getattr(panel, field.key), m):
+            setattr(panel, field.key, m)
+            self._mark_dirty()
+            self._recompute()
+        if field is self._focused:
+            self._update_help()
+
+    @on(Input.Submitted)
+    def _next_on_enter(self, event: Input.Submitted) -> None:
+        event.stop()
+        self.focus_next()
+
+    @on(Input.Changed, "#meta-label")
+    def _label_changed(self, event: Input.Changed) -> None:
+        text = event.value.strip()
+        others = {d.label for i, d in enumerate(self.case.draws) if i != self.index}
+        problem = None
+        if not text:
+            problem = "x refused: a draw needs a label"
+        elif text in others:
+            problem = "x refused: another draw has this label"
+        elif text != self.draw.label:
+            self.draw.label = text
+            self._refresh_draw_options()
+            self._mark_dirty()
+            self._recompute()
+        self._meta_state("st-label", problem)
+
+    @on(Input.Changed, "#meta-taken")
+    def _taken_changed(self, event: Input.Changed) -> None:
+        text = event.value.strip()
+        problem = None
+        try:
+            taken = datetime.fromisoformat(text) if text else None
+        except ValueError:
+            taken, problem = self.draw.taken, "x refused: write e.g. 2026-11-30T08:15"
+        if problem is None and taken != self.draw.taken:
+            self.draw.taken = taken
+            self._mark_dirty()
+            self._recompute()
+        self._meta_state("st-taken", problem)
+
+    @on(Input.Changed, "#meta-notes")
+    def _draw_notes_changed(self, event: Input.Changed) -> None:
+        notes = event.value.strip() or None
+        if notes != self.draw.notes:
+            self.draw.notes = notes
+            self._mark_dirty()
+
+    @on(Select.Changed, "#meta-during")
+    def _during_changed(self, event: Select.Changed) -> None:
+        during = None if event.value in (NO_TEST, Select.NULL) else LoadingTest(event.value)
+        if during != self.draw.during:
+            self.draw.during = during
+            self._mark_dirty()
+            self._recompute()
+
+    @on(Select.Changed, "#meta-sample")
+    def _sample_changed(self, event: Select.Changed) -> None:
+        if event.value is Select.NULL:
+            return
+        sample = GasSample(event.value)
+        if sample != self.draw.blood_gas.sample:
+            self.draw.blood_gas.sample = sample
+            self._mark_dirty()
+            self._recompute()
+
+    @on(Select.Changed, "#draw-select")
+    def _draw_chosen(self, event: Select.Changed) -> None:
+        if isinstance(event.value, int) and event.value != self.index:
+            self.switch_draw(event.value)
+
+    @on(Input.Changed, "#case-label")
+    def _case_label_changed(self, event: Input.Changed) -> None:
+        text = event.value.strip()
+        if not text:
+            self._meta_state("st-clabel", "x refused: a case needs a label")
+            return
+        self._meta_state("st-clabel", None)
+        if text != self.case.label:
+            self.case.label = text
+            self._mark_dirty()
+            self._recompute()
+
+    @on(Input.Changed, "#case-notes")
+    def _case_notes_changed(self, event: Input.Changed) -> None:
+        notes = event.value.strip() or None
+        if notes != self.case.notes:
+            self.case.notes = notes
+            self._mark_dirty()
+
+    @on(Select.Changed, "#case-units")
+    def _units_changed(self, event: Select.Changed) -> None:
+        units = None if event.value in ("none", Select.NULL) else UnitSystem(event.value)
+        if units == self.case.units:
+            return
+        self.case.units = units
+        self._mark_dirty()
+        for (panel, key), field in self._fields.items():
+            if getattr(self.draw.panel(panel), key) is None and field.analyte.ambiguous:
+                field.show_unit(default_unit(field.analyte, units))
+                self._apply_field(field, field.input.value)
+        self._recompute()
+
+    def _patient_update(self, name: str, value: Any, state_id: str) -> None:
+        data = self.case.patient.model_dump()
+        data[name] = value
+        try:
+            patient = Patient.model_validate(data)
+        except ValidationError as exc:
+            self._meta_state(
+                state_id, "x refused: " + exc.errors()[0]["msg"].removeprefix("Value error, ")
+            )
+            return
+        self._meta_state(state_id, None)
+        if patient != self.case.patient:
+            self.case.patient = patient
+            self._mark_dirty()
+            self._recompute()
+
+    @on(Input.Changed, "#case-age")
+    def _age_changed(self, event: Input.Changed) -> None:
+        text = event.value.strip()
+        if text and not text.isdigit():
+            self._meta_state("st-age", "x refused: whole years, e.g. 54")
+            return
+        self._patient_update("age", int(text) if text else None, "st-age")
+
+    @on(Input.Changed, "#case-weight")
+    def _weight_changed(self, event: Input.Changed) -> None:
+        self._patient_update("weight", event.value.strip() or None, "st-weight")
+
+    @on(Select.Changed, "#case-sex")
+    def _sex_changed(self, event: Select.Changed) -> None:
+        sex = None if event.value in ("none", Select.NULL) else Sex(event.value)
+        self._patient_update("sex", sex, "st-sex")
+
+    @on(SelectionList.SelectedChanged, "#case-context")
+    def _context_changed(self, event: SelectionList.SelectedChanged) -> None:
+        chosen = set(event.selection_list.selected)
+        flags = [f for f in Flag if f.value in chosen]
+        if flags != list(self.case.context):
+            self.case.context = flags
+            self._mark_dirty()
+            self._recompute()
+
+    def _meta_state(self, state_id: str, problem: str | None) -> None:
+        if problem:
+            self.meta_problems[state_id] = problem
+        else:
+            self.meta_problems.pop(state_id, None)
+        self.query_one(f"#{state_id}", Static).update(problem or "")
+
+    def _refresh_draw_options(self) -> None:
+        select = self.query_one("#draw-select", Select)
+        with self._quiet():
+            select.set_options(self._draw_options())
+            select.value = self.index
+        self._update_title()
+
+    # ----------------------------------------------------------------- focus and help line
+
+    def on_descendant_focus(self, event) -> None:
+        widget = event.widget
+        field = next((a for a in widget.ancestors if isinstance(a, ValueField)), None)
+        self._focused = field
+        self._update_help()
+
+    def _update_help(self) -> None:
+        help_line = self.query_one("#field-help", Static)
+        field = self._focused
+        if field is None:
+            help_line.update(
+                "Tab/Enter: next field  Shift+Tab: back  Ctrl+N: new draw  F4: findings  F1: help"
+            )
+            return
+        reading = self.readings.get((field.panel, field.key), FieldReading(None))
+        a = field.analyte
+        units = ", ".join(u or "no unit" for u in unit_choices(a))
+        out = Text()
+        out.append(f"{a.name} ({field.panel.value.replace('_', ' ')})", style="bold")
+        shown = field.unit if field.unit is not None else "no unit chosen"
+        out.append(f" in {shown or 'no unit'}; units {units}")
+        if len(unit_choices(a)) > 1:
+            out.append(" (Ctrl+T switches)")
+        if a.words:
+            out.append("; grades: " + ", ".join(a.words))
+        if reading.problem:
+            out.append("\nx refused: " + reading.problem, style="bold")
+        elif reading.caution:
+            out.append("\n! " + reading.caution, style="bold")
+        elif reading.measurement is not None:
+            m = reading.measurement
+            canon = f"{m.canonical:g} {a.canonical}".strip()
+            out.append(f"\n+ read as {canon}")
+        help_line.update(out)
+
+    # ----------------------------------------------------------------- assessment
+
+    def _recompute(self) -> None:
+        try:
+            self.assessment = assess(self.case, self.draw.label, self.overrides)
+            self.error = None
+        except Exception as exc:  # a half-built core must not take the app down
+            self.assessment = None
+            self.error = f"The assessment could not be computed: {type(exc).__name__}: {exc}"
+        a = self.assessment
+        self.query_one(FindingsView).show(a, self.error)
+        self.query_one(CausesView).show(a, self.error)
+        self._update_diagram()
+        self._update_cautions()
+        self._update_title()
+
+    def _point(self, d: Draw) -> tuple[diagram.Point | None, str]:
+        return diagram.point_for(
+            d.blood_gas.canonical("ph"),
+            d.blood_gas.canonical("bicarbonate"),
+            d.serum.canonical("bicarbonate"),
+            d.blood_gas.canonical("pco2"),
+            d.label,
+        )
+
+    def _update_diagram(self) -> None:
+        point, source = self._point(self.draw)
+        others = tuple(
+            p
+            for i, d in enumerate(self.case.draws)
+            if i != self.index and (p := self._point(d)[0]) is not None
+        )
+        check = self.assessment.indices.get("henderson_hasselbalch_ph") if self.assessment else None
+        self.query_one(DavenportView).show(point, source, others, check)
+
+    def specific_cautions(self) -> list[str]:
+        """The cautions of this case and draw (without the standing ones)."""
+        if self.assessment is None:
+            return [self.error] if self.error else []
+        return [c for c in self.assessment.cautions if c not in CAUTION_LINES]
+
+    def _update_cautions(self) -> None:
+        own = self.specific_cautions()
+        line = self.query_one("#caution-line", Static)
+        if own:
+            more = f" (+{len(own) - 1} more: F1)" if len(own) > 1 else " (F1: all cautions)"
+            line.update(f"! {own[0]}{more}")
+        else:
+            line.update(f"! {CAUTION_SHORT} (F1)")
+
+    # ----------------------------------------------------------------- actions
+
+    def action_tab(self, tab_id: str) -> None:
+        """Show one tab."""
+        self.query_one(TabbedContent).active = tab_id
+        if tab_id == "tab-findings":
+            self.query_one("#indices").focus()
+        elif tab_id == "tab-causes":
+            self.query_one(CausesView).focus()
+        elif tab_id == "tab-draw":
+            (self._focused.input if self._focused else self.query_one("#in-serum-sodium")).focus()
+        elif tab_id == "tab-case":
+            self.query_one("#case-label").focus()
+        else:
+            self.query_one(TabbedContent).query_one("Tabs").focus()
+
+    def action_next_unit(self) -> None:
+        """Switch the focused field to its next unit, converting a value already read."""
+        field = self._focused
+        if field is None or field.analyte.words:
+            self.notify("Move to a value field to switch its unit.", severity="warning")
+            return
+        choices = unit_choices(field.analyte)
+        if len(choices) < 2:
+            self.notify(f"{field.analyte.name} has one unit only.")
+            return
+        i = choices.index(field.unit) + 1 if field.unit in choices else 0
+        new = choices[i % len(choices)]
+        m = getattr(self.draw.panel(field.panel), field.key)
+        field.show_unit(new)
+        if m is not None:
+            value = convert(field.analyte, m.canonical, new)
+            digits = max(field.analyte.decimals, 1) + 1
+            text = f"{round(value, digits):g}"
+            with self._quiet():
+                field.input.value = text
+            self._apply_field(field, text)
+        else:
+            self._apply_field(field, field.input.value)
+
+    def switch_draw(self, index: int) -> None:
+        """Show draw ``index`` in the form and the findings."""
+        self.index = max(0, min(index, len(self.case.draws) - 1))
+        self._load_draw()
+        self._recompute()
+
+    def action_previous_draw(self) -> None:
+        """Show the draw before this one."""
+        if self.index > 0:
+            self.switch_draw(self.index - 1)
+
+    def action_next_draw(self) -> None:
+        """Show the draw after this one."""
+        if self.index < len(self.case.draws) - 1:
+            self.switch_draw(self.index + 1)
+
+    def action_new_draw(self) -> None:
+        """Add an empty draw, time-stamped now, and show it."""
+        self.case.draws.append(self._fresh_draw())
+        self._mark_dirty()
+        self.switch_draw(len(self.case.draws) - 1)
+        self.action_tab("tab-draw")
+        self.query_one("#meta-label", Input).focus()
+
+    def action_copy_draw(self) -> None:
+        """Add a copy of this draw's values as a new draw."""
+        new = self._fresh_draw()
+        copy = self.draw.model_copy(deep=True)
+        copy.label, copy.taken, copy.during = new.label, new.taken, None
+        self.case.draws.append(copy)
+        self._mark_dirty()
+        self.switch_draw(len(self.case.draws) - 1)
+
+    def action_delete_draw(self) -> None:
+        """Remove this draw, after asking."""
+        if len(self.case.draws) == 1:
+            self.notify("A case keeps at least one draw.", severity="warning")
+            return
+
+        def done(answer: str | None) -> None:
+            if answer != "delete":
+                return
+            del self.case.draws[self.index]
+            self.pending = {
+                (i if i < self.index else i - 1, p, k): t
+                for (i, p, k), t in self.pending.items()
+                if i != self.index
+            }
+            self._mark_dirty()
+            self.switch_draw(min(self.index, len(self.case.draws) - 1))
+
+        self.app.push_screen(
+            ChoiceScreen(
+                f"Delete the draw {self.draw.label!r} and its values?",
+                [("cancel", "Keep it"), ("delete", "Delete")],
+            ),
+            done,
+        )
+
+    def refused_summary(self) -> list[str]:
+        """Fields holding refused text, in words."""
+        out = []
+        for (i, panel, key), text in self.pending.items():
+            field = self._fields[(panel, key)]
+            out.append(f"{self.case.draws[i].label}: {field.analyte.name} {text!r}")
+        return out
+
+    def save_now(self, path: Path | None = None) -> bool:
+        """Write the case (refused values are not part of it); True when written."""
+        target = path or self.path or persistence.new_case_path(self.cases_dir, self.case.label)
+        try:
+            persistence.write_case(self.case, target)
+        except OSError as exc:
+            self.notify(f"Could not save to {target}: {exc}", severity="error", timeout=10)
+            return False
+        self.path = target
+        self.dirty = False
+        self._update_title()
+        refused = self.refused_summary()
+        extra = f" {len(refused)} refused value(s) were not saved." if refused else ""
+        self.notify(f"Saved to {target}.{extra}", title="Saved")
+        return True
+
+    def action_save(self) -> None:
+        """Save the case (asking first when some values were refused)."""
+        refused = self.refused_summary()
+        if not refused:
+            self.save_now()
+            return
+        listing = "\n".join(f"  {r}" for r in refused[:6])
+
+        def done(answer: str | None) -> None:
+            if answer == "save":
+                self.save_now()
+
+        self.app.push_screen(
+            ChoiceScreen(
+                f"These values were refused and are not part of the case:\n{listing}\n"
+                "Save the rest?",
+                [("cancel", "Go back and fix"), ("save", "Save the rest")],
+            ),
+            done,
+        )
+
+    def action_save_as(self) -> None:
+        """Save under a new file name (in the library folder unless a full path is given)."""
+        suggested = (
+            self.path.name
+            if self.path
+            else persistence.new_case_path(self.cases_dir, self.case.label).name
+        )
+
+        def done(answer: str | None) -> None:
+            if not answer:
+                return
+            target = Path(answer).expanduser()
+            if not target.is_absolute():
+                target = self.cases_dir / target
+            if target.suffix not in (".yaml", ".yml"):
+                target = target.with_name(target.name + ".yaml")
+            if target.exists() and target != self.path:
+
+                def confirm(answer: str | None) -> None:
+                    if answer == "replace":
+                        self.save_now(target)
+
+                self.app.push_screen(
+                    ChoiceScreen(
+                        f"{target} exists. Replace it?",
+                        [("cancel", "Keep it"), ("replace", "Replace")],
+                    ),
+                    confirm,
+                )
+                return
+            self.save_now(target)
+
+        self.app.push_screen(AskScreen("Save the case as (file name):", suggested), done)
+
+    def confirm_leave(self, then: Callable[[], None]) -> None:
+        """Run ``then`` after saving or discarding unsaved changes, as the fellow chooses."""
+        if not self.dirty:
+            then()
+            return
+
+        def done(answer: str | None) -> None:
+            if (answer == "save" and self.save_now()) or answer == "discard":
+                then()
+
+        self.app.push_screen(
+            ChoiceScreen(
+                f"{self.case.label!r} has unsaved changes.",
+                [("save", "Save"), ("discard", "Discard changes"), ("cancel", "Cancel")],
+            ),
+            done,
+        )
+
+    def action_close(self) -> None:
+        """Close the case and return to the library (asking about unsaved changes)."""
+        self.confirm_leave(self.dismiss)
+
+    def action_note(self) -> None:
+        """Open the note screen on the current assessment."""
+        if self.assessment is None:
+            self.notify(self.error or "Nothing to draft yet.", severity="warning")
+            return
+        from screens.note_screen import NoteScreen
+
+        self.app.push_screen(
+            NoteScreen(
+                self.assessment,
+                self.case,
+                lambda: persistence.note_path(self.path, self.cases_dir, self.case.label),
+                persistence.write_note,
+            )
+        )
+
+    def action_paste(self) -> None:
+        """Read a pasted lab report into this draw (when the paste screen is available)."""
+        try:
+            from screens.paste import PasteScreen
+            from workup.paste import apply_proposal
+        except ImportError:
+            self.notify("Pasting lab reports is not available yet.", severity="warning")
+            return
+
+        def done(proposal: Any) -> None:
+            if proposal is None:
+                return
+            try:
+                updated = apply_proposal(self.draw, proposal)
+            except Exception as exc:
+                self.notify(f"The pasted values could not be applied: {exc}", severity="error")
+                return
+            self.case.draws[self.index] = updated
+            self._mark_dirty()
+            self.switch_draw(self.index)
+
+        self.app.push_screen(PasteScreen(self.case.units), done)
+
+    def _open_optional(self, name: str) -> None:
+        try:
+            import screens.trends as trends
+        except ImportError:
+            self.notify("Trends are not available yet.", severity="warning")
+            return
+        self.app.push_screen(getattr(trends, name)(self.case))
+
+    def action_trends(self) -> None:
+        """Show each value over the case's draws."""
+        self._open_optional("TrendsScreen")
+
+    def action_compare(self) -> None:
+        """Compare the case's draws side by side."""
+        self._open_optional("CompareScreen")
+
+    # ----------------------------------------------------------------- help and commands
+
+    def help_context(self) -> tuple[str, list[tuple[str, str]], list[str], str]:
+        """What the help screen shows for this screen."""
+        keys = [
+            ("F2 .. F6", "tabs: draw, case, findings, causes, diagram"),
+            ("Tab / Enter", "next field;  Shift+Tab: previous field"),
+            ("Ctrl+T", "switch the unit of the field (a value already read is converted)"),
+            ("Ctrl+N", "new draw, time-stamped now"),
+            ("Ctrl+PgUp/PgDn", "previous / next draw"),
+            ("s", "(findings) show the formula and source of the selected index"),
+            ("Ctrl+S", "save;  Save as, duplicate, delete draw: Ctrl+P"),
+            ("F7", "draft the note (copy or write to a file)"),
+            ("F8 / F9", "paste a lab report / trends over the draws"),
+            ("Ctrl+O", "close the case and go to the library"),
+            ("Ctrl+Q", "quit (asks when changes are unsaved)"),
+        ]
+        extra = "Davenport bands (F6):\n" + band_rules_text()
+        return f"case {self.case.label}", keys, self.specific_cautions(), extra
+
+    def commands(self) -> list[tuple[str, str, Callable[[], Any]]]:
+        """Palette entries for every action of this screen."""
+        cmds: list[tuple[str, str, Callable[[], Any]]] = [
+            ("Save", "Save the case to its file", self.action_save),
+            ("Save as…", "Save the case under a new file name", self.action_save_as),
+            ("Duplicate case", "Open a copy of this case as a new, unsaved case",
+             lambda: self.app.duplicate_case(self)),  # type: ignore[attr-defined]
+            ("New case", "Start a new, empty case", lambda: self.app.new_case()),  # type: ignore[attr-defined]
+            ("Close case", "Return to the library", self.action_close),
+            ("New draw", "Add an empty draw, time-stamped now", self.action_new_draw),
+            ("Copy draw", "Add a new draw holding this draw's values", self.action_copy_draw),
+            ("Delete draw", "Remove the current draw", self.action_delete_draw),
+            ("Previous draw", "Show the draw before this one", self.action_previous_draw),
+            ("Next draw", "Show the draw after this one", self.action_next_draw),
+            ("Switch unit", "Next unit for the focused value field", self.action_next_unit),
+            ("Draft note", "Draft, edit, copy or write the note", self.action_note),
+            ("Paste lab report", "Read pasted lab text into this draw", self.action_paste),
+            ("Trends", "Values over the case's draws", self.action_trends),
+            ("Compare draws", "The draws side by side", self.action_compare),
+        ]  # fmt: skip
+        for key, tid, name in TABS:
+            cmds.append((f"Show {name.lower()}", f"The {name} tab ({key.upper()})",
+                         lambda tid=tid: self.action_tab(tid)))  # fmt: skip
+        return cmds

@@ -1,0 +1,91 @@
+"""Small modal screens: a question with a few answers, a line of text to type, a size warning."""
+
+from __future__ import annotations
+
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, Vertical
+from textual.screen import ModalScreen
+from textual.widgets import Button, Input, Static
+
+
+class ChoiceScreen(ModalScreen[str]):
+    """Ask ``question``; dismisses with the key of the chosen answer ("cancel" on Escape)."""
+
+    BINDINGS = [Binding("escape", "choose('cancel')", "Cancel")]
+
+    def __init__(self, question: str, answers: list[tuple[str, str]]) -> None:
+        super().__init__()
+        self.question = question
+        self.answers = answers
+
+    def compose(self) -> ComposeResult:
+        with Vertical(classes="dialog"):
+            yield Static(self.question, classes="dialog-question")
+            with Horizontal(classes="dialog-buttons"):
+                for key, label in self.answers:
+                    yield Button(label, id=f"answer-{key}", compact=True)
+
+    def on_mount(self) -> None:
+        self.query(Button).first().focus()
+
+    def on_button_pressed(self, event: Button.Pressed) -> None:
+        event.stop()
+        self.dismiss((event.button.id or "answer-cancel").removeprefix("answer-"))
+
+    def action_choose(self, key: str) -> None:
+        """Answer ``key`` (bound to Escape for cancel)."""
+        self.dismiss(key)
+
+
+class AskScreen(ModalScreen[str | None]):
+    """Ask for one line of text; Enter accepts, Escape cancels (None)."""
+
+    BINDINGS = [Binding("escape", "cancel", "Cancel")]
+
+    def __init__(self, question: str, value: str = "") -> None:
+        super().__init__()
+        self.question = question
+        self.value = value
+
+    def compose(self) -> ComposeResult:
+        with Vertical(classes="dialog"):
+            yield Static(self.question, classes="dialog-question")
+            yield Input(self.value, id="ask-input", compact=True, max_length=200)
+            yield Static("Enter: accept   Esc: cancel", classes="dialog-hint")
+
+    def on_mount(self) -> None:
+        self.query_one(Input).focus()
+
+    def on_input_submitted(self, event: Input.Submitted) -> None:
+        event.stop()
+        self.dismiss(event.value.strip() or None)
+
+    def action_cancel(self) -> None:
+        """Close without an answer."""
+        self.dismiss(None)
+
+
+MIN_WIDTH, MIN_HEIGHT = 80, 24
+
+
+class TooSmallScreen(ModalScreen[None]):
+    """Shown instead of a broken layout while the terminal is smaller than 80 × 24."""
+
+    def compose(self) -> ComposeResult:
+        yield Static("", id="too-small")
+
+    def on_mount(self) -> None:
+        self.update_size()
+
+    def on_resize(self) -> None:
+        self.update_size()
+
+    def update_size(self) -> None:
+        """Say how big the terminal is and how big it needs to be."""
+        w, h = self.app.size
+        self.query_one("#too-small", Static).update(
+            f"Terminal too small: {w} × {h}.\n"
+            f"workup needs at least {MIN_WIDTH} × {MIN_HEIGHT}.\n"
+            "Enlarge the window; nothing is lost. Ctrl+Q quits."
+        )

@@ -1,0 +1,230 @@
+"""Showing an assessment: the indices with their status, the disorders, the ranked causes.
+
+Every number shown here is one the core computed, printed with the core's status word and mark
+(``workup.findings.STATUS_WORD``/``STATUS_MARK``) so that status never rests on colour alone.
+"""
+
+from __future__ import annotations
+
+from rich.text import Text
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Vertical, VerticalScroll
+from textual.widgets import DataTable, Static
+
+from workup.assess import Assessment
+from workup.findings import STATUS_MARK, STATUS_WORD, Finding, Status
+from workup.formatting import fmt_value
+
+STATUS_STYLE = {
+    Status.ok: "status-ok",
+    Status.caution: "status-caution",
+    Status.not_valid: "status-not-valid",
+    Status.needs_input: "status-needs-input",
+}
+
+LEGEND = "  ".join(f"{STATUS_MARK[s]} {STATUS_WORD[s]}" for s in Status)
+"""The status marks in words, for every view that shows them."""
+
+
+def status_text(f: Finding) -> Text:
+    """``mark word`` of a finding's status, styled by the stylesheet's status classes."""
+    style = {
+        Status.ok: "bold",
+        Status.caution: "bold reverse",
+        Status.not_valid: "bold underline",
+        Status.needs_input: "dim",
+    }[f.status]
+    return Text(f"{STATUS_MARK[f.status]} {STATUS_WORD[f.status]}", style=style)
+
+
+def reading_words(f: Finding) -> str:
+    """The core's reading of a finding in plain words ("" when there is no value)."""
+    if not f.interpretation or f.value is None:
+        return ""
+    return f.interpretation.replace("_", " ")
+
+
+def finding_detail(f: Finding, show_source: bool) -> Text:
+    """The reasons and missing inputs of one finding; formula and source when asked for."""
+    out = Text()
+    out.append(f"{f.name}: ", style="bold")
+    out.append(fmt_value(f) if f.value is not None else "no value")
+    out.append("  [")
+    out.append_text(status_text(f))
+    out.append("]")
+    if reading_words(f):
+        out.append(f"  reading: {reading_words(f)}")
+    for r in f.reasons:
+        out.append(f"\n  - {r}")
+    if f.needs:
+        out.append("\n  missing: " + ", ".join(f.needs))
+    if show_source:
+        out.append(f"\n  formula: {f.formula or 'not given'}")
+        out.append(f"\n  source: {f.source or 'not given'}")
+    else:
+        out.append("\n  (s: formula and source)", style="dim")
+    return out
+
+
+class IndexTable(DataTable):
+    """The indices, one row each; s toggles formula and source of the selected one."""
+
+    BINDINGS = [Binding("s", "toggle_source", "Formula/source")]
+
+    def action_toggle_source(self) -> None:
+        """Show or hide the formula and source of the selected index."""
+        view = next(a for a in self.ancestors if isinstance(a, FindingsView))
+        view.show_source = not view.show_source
+        view.refresh_detail()
+
+
+class FindingsView(Vertical):
+    """Disorders of the draw, then its indices as a table, then the selected index in full."""
+
+    def __init__(self, **kwargs) -> None:
+        super().__init__(**kwargs)
+        self.assessment: Assessment | None = None
+        self.show_source = False
+        self._ids: list[str] = []
+        self._width = 0
+        self._error: str | None = None
+
+    def compose(self) -> ComposeResult:
+        yield Static("", id="disorders")
+        yield IndexTable(id="indices", cursor_type="row", zebra_stripes=False)
+        yield Static("", id="index-detail")
+
+    def on_mount(self) -> None:
+        self._columns(self.size.width or 80)
+
+    def _columns(self, width: int) -> None:
+        # Mark, value and status keep their full width; name and reading share the rest.
+        table = self.query_one(IndexTable)
+        table.clear(columns=True)
+        rest = max(width - 2 - (1 + 14 + 13) - 2 * 5, 24)
+        name = max(rest * 2 // 3, 16)
+        self._width = width
+        table.add_column("", key="mark", width=1)
+        table.add_column("Index", key="name", width=name)
+        table.add_column("Value", key="value", width=14)
+        table.add_column("Status", key="status", width=13)
+        table.add_column("Reading", key="reading", width=rest - name)
+
+    def on_resize(self) -> None:
+        if self.size.width and self.size.width != self._width:
+            self._columns(self.size.width)
+            self.show(self.assessment, self._error)
+
+    def show(self, a: Assessment | None, error: str | None = None) -> None:
+        """Show assessment ``a`` (or why there is none)."""
+        self.assessment = a
+        self._error = error
+        disorders = self.query_one("#disorders", Static)
+        table = self.query_one(IndexTable)
+        row = table.cursor_row
+        table.clear()
+        self._ids = []
+        if a is None:
+            disorders.update(error or "No assessment yet.")
+            self.refresh_detail()
+            return
+        disorders.update(disorders_text(a))
+        for f in a.indices.values():
+            table.add_row(
+                STATUS_MARK[f.status],
+                f.name,
+                fmt_value(f) if f.value is not None else "—",
+                status_text(f),
+                reading_words(f),
+                key=f.id,
+            )
+            self._ids.append(f.id)
+        if self._ids:
+            table.move_cursor(row=min(max(row, 0), len(self._ids) - 1))
+        self.refresh_detail()
+
+    def selected(self) -> Finding | None:
+        """The finding under the table's cursor."""
+        table = self.query_one(IndexTable)
+        if self.assessment is None or not self._ids:
+            return None
+        i = min(max(table.cursor_row, 0), len(self._ids) - 1)
+        return self.assessment.indices.get(self._ids[i])
+
+    def refresh_detail(self) -> None:
+        """Redraw the detail of the selected finding."""
+        f = self.selected()
+        detail = self.query_one("#index-detail", Static)
+        if f is None:
+            detail.update("Legend: " + LEGEND)
+        else:
+            detail.update(finding_detail(f, self.show_source))
+
+    def on_data_table_row_highlighted(self, event: DataTable.RowHighlighted) -> None:
+        self.refresh_detail()
+
+
+def disorders_text(a: Assessment) -> Text:
+    """The disorders of the draw with their evidence."""
+    out = Text()
+    out.append(f"Draw: {a.draw_label or 'none'}", style="bold")
+    out.append(f"   legend: {LEGEND}\n", style="dim")
+    if not a.disorders:
+        out.append("Acid-base disorders: none identified from the values entered.")
+        return out
+    out.append("Acid-base disorders:")
+    for d in a.disorders:
+        role = "primary" if d.primary else "added"
+        bits = [role]
+        if d.detail:
+            bits.append(d.detail)
+        if d.compensation:
+            bits.append(f"compensation {d.compensation}")
+        out.append(f"\n  > {d.name} ({', '.join(bits)})", style="bold")
+        for e in d.evidence:
+            out.append(f"\n      - {e.text}")
+    return out
+
+
+def causes_text(a: Assessment | None, error: str | None = None) -> Text:
+    """The ranked causes of a normal-gap acidosis with for/against/missing, then next tests."""
+    out = Text()
+    if a is None:
+        out.append(error or "No assessment yet.")
+        return out
+    out.append("Causes of a normal-gap acidosis (judged on every draw)", style="bold")
+    for note in a.ranking_notes:
+        out.append(f"\n  {note}", style="italic")
+    if not a.patterns:
+        out.append("\n  No cause ranked.")
+    for p in a.patterns:
+        out.append(f"\n\n{p.verdict.value.upper():<9} ", style="bold reverse")
+        out.append(f" {p.name}", style="bold")
+        for e in p.support:
+            out.append(f"\n  + for: {e.text}")
+        for e in p.against:
+            out.append(f"\n  - against: {e.text}")
+        if p.missing:
+            out.append("\n  ? missing: " + ", ".join(p.missing))
+    out.append("\n\nSuggested next tests", style="bold")
+    if not a.next_tests:
+        out.append("\n  none suggested")
+    for t in a.next_tests:
+        out.append(f"\n  * {t.text}")
+        if t.why:
+            out.append(f"\n      {t.why}", style="italic")
+    return out
+
+
+class CausesView(VerticalScroll):
+    """The pattern ranking, scrollable by keyboard."""
+
+    can_focus = True
+
+    def compose(self) -> ComposeResult:
+        yield Static("", id="causes-text")
+
+    def show(self, a: Assessment | None, error: str | None = None) -> None:
+        """Show the ranking of assessment ``a``."""
+        self.query_one("#causes-text", Static).update(causes_text(a, error))
