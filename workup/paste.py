@@ -543,13 +543,12 @@ def _question_text(line, ident, targets, units_asked, confirm, several, src) -> 
     head = f"line {src.number} “{shown}”"
     if several:
         return f"{head} holds more than one value: which one belongs to this draw?"
-    if ident.co2:
-        return (
-            f"{head}: “CO2” may be the total CO2 (serum bicarbonate) or the pCO2 of a blood gas: "
-            "which is it?"
-        )
     asks = []
-    if len({p for p, _ in targets}) > 1:
+    if ident.co2:
+        asks.append(
+            "“CO2” may be the total CO2 (serum bicarbonate) or the pCO2 of a blood gas: which is it?"
+        )
+    if len({p for p, _ in targets}) > 1 and not ident.co2:
         words = " or ".join(PANEL_WORD[p.value] for p, _ in targets)
         asks.append(f"no sample type is given: {words}?")
     if confirm == "gas":
@@ -574,7 +573,9 @@ def _read_other(line: str, src: SourceLine, ctx: _Context, unrecognised: list[Un
     """A line without an analyte name: a collection time, a heading, column titles, or noise."""
     found = find_time(line)
     rest = line if found is None else line[: found.start] + " " + line[found.end :]
-    heading = match_heading(rest) if not re.search(r"\d", rest) else None
+    # A heading holds no value; "24-hour urine" is the one heading with digits in it.
+    bare = re.sub(r"(?i)\b24[- ]?h(ou)?r?s?\b", "", rest)
+    heading = match_heading(rest) if not re.search(r"\d", bare) else None
     if found is not None and (_COLLECTED.search(line) or heading is not None):
         if found.when is None:
             unrecognised.append(Unrecognised(src, found.problem))
