@@ -12,7 +12,7 @@ from tests.workup.test_calculator_properties import draws
 from workup.caseio import load_case
 from workup.findings import Finding
 from workup.indices import REGISTRY, compute_all
-from workup.inputs import inputs_for
+from workup.inputs import DrawInputs, inputs_for
 
 ROOT = Path(__file__).resolve().parents[2]
 DOC = ROOT / "docs" / "indices.md"
@@ -70,3 +70,9 @@ def test_demo_cases_use_only_contract_words(path):
 def test_random_draws_use_only_contract_words(x):
     for f in compute_all(x).values():
         _check(f)
+
+
+def test_names_fit_a_terminal_column():
+    # The text outputs give a name 34 columns; a longer name pushes the status off the line.
+    for f in compute_all(DrawInputs()).values():
+        assert len(f.name) <= 34, f.name

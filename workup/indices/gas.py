@@ -177,7 +177,11 @@ def expected_pco2(x: DrawInputs) -> Finding:
 
 def expected_pco2_metabolic_alkalosis(x: DrawInputs) -> Finding:
     """The pCO2 expected from respiratory compensation of a metabolic alkalosis."""
-    fid, name, unit = "expected_pco2_metabolic_alkalosis", "Expected pCO2 (alkalosis)", "mmHg"
+    fid, name, unit = (
+        "expected_pco2_metabolic_alkalosis",
+        "Expected pCO2 (metab. alkalosis)",
+        "mmHg",
+    )
     formula = "expected pCO2 = normal pCO2 + 0.7 × (HCO3 − normal HCO3) ± band"
     s = x.settings
     hco3, _, note = bicarbonate(x)
@@ -312,7 +316,7 @@ def expected_bicarbonate_respiratory_acidosis_acute(x: DrawInputs) -> Finding:
     """Bicarbonate expected in an acute respiratory acidosis: 0.1 per mmHg of pCO2."""
     return _respiratory(
         x, "expected_bicarbonate_respiratory_acidosis_acute",
-        "Expected HCO3 (acute respiratory acidosis)", (0.1, 0.1), True, False,
+        "Exp. HCO3, acute resp. acidosis", (0.1, 0.1), True, False,
     )  # fmt: skip
 
 
@@ -320,7 +324,7 @@ def expected_bicarbonate_respiratory_acidosis_chronic(x: DrawInputs) -> Finding:
     """Bicarbonate expected in a chronic respiratory acidosis: 0.35 per mmHg of pCO2."""
     return _respiratory(
         x, "expected_bicarbonate_respiratory_acidosis_chronic",
-        "Expected HCO3 (chronic respiratory acidosis)", (0.35, 0.35), True, True,
+        "Exp. HCO3, chronic resp. acidosis", (0.35, 0.35), True, True,
     )  # fmt: skip
 
 
@@ -328,7 +332,7 @@ def expected_bicarbonate_respiratory_alkalosis_acute(x: DrawInputs) -> Finding:
     """Bicarbonate expected in an acute respiratory alkalosis: 0.2 per mmHg of pCO2."""
     return _respiratory(
         x, "expected_bicarbonate_respiratory_alkalosis_acute",
-        "Expected HCO3 (acute respiratory alkalosis)", (0.2, 0.2), False, False,
+        "Exp. HCO3, acute resp. alkalosis", (0.2, 0.2), False, False,
     )  # fmt: skip
 
 
@@ -336,5 +340,5 @@ def expected_bicarbonate_respiratory_alkalosis_chronic(x: DrawInputs) -> Finding
     """Bicarbonate expected in a chronic respiratory alkalosis: 0.4–0.5 per mmHg of pCO2."""
     return _respiratory(
         x, "expected_bicarbonate_respiratory_alkalosis_chronic",
-        "Expected HCO3 (chronic respiratory alkalosis)", (0.4, 0.5), False, True,
+        "Exp. HCO3, chronic resp. alkalosis", (0.4, 0.5), False, True,
     )  # fmt: skip
