@@ -115,6 +115,9 @@ def _current(conn: sqlite3.Connection, stamp: str) -> bool:
 def _reset(conn: sqlite3.Connection, stamp: str) -> None:
     conn.execute("BEGIN IMMEDIATE")
     try:
+        if _current(conn, stamp):  # another process rebuilt it while we waited for the lock
+            conn.execute("COMMIT")
+            return
         conn.execute("DROP TABLE IF EXISTS cases")
         conn.execute("DROP TABLE IF EXISTS meta")
         for stmt in _CREATE.split(";"):

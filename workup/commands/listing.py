@@ -18,6 +18,9 @@ from workup.library import SORT_KEYS
 
 def add_arguments(p: argparse.ArgumentParser) -> None:
     """Arguments of ``workup list``."""
+    # Search terms may follow options (`workup list DIR --json k<3`): plain parse_args cannot
+    # take positionals on both sides of an option, the intermixed parser can.
+    p.parse_args = p.parse_intermixed_args  # type: ignore[method-assign]
     p.add_argument(
         "words",
         nargs="*",
@@ -44,8 +47,14 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
 
 
 def _split(words: list[str]) -> tuple[Path | None, list[str]]:
-    if words and Path(words[0]).expanduser().is_dir():
-        return Path(words[0]).expanduser(), words[1:]
+    """The folder (the first word, when it is one or is written like a path) and the terms."""
+    if words:
+        first = words[0]
+        path = Path(first).expanduser()
+        if path.is_dir() or (":" not in first and first.startswith(("/", ".", "~"))):
+            return path, words[1:]
+        if "/" in first and ":" not in first and not any(c in first for c in "<>="):
+            return path, words[1:]
     return None, words
 
 

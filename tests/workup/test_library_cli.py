@@ -1,0 +1,98 @@
+"""``workup list``: rows, JSON, search terms, cohort CSV and the exit codes."""
+
+from __future__ import annotations
+
+import csv
+import io
+import json
+import shutil
+from pathlib import Path
+
+import pytest
+
+from workup.cli import main
+
+
+@pytest.fixture
+def folder(tmp_path: Path, cases_dir: Path) -> Path:
+    out = tmp_path / "cases"
+    shutil.copytree(cases_dir, out)
+    (out / "broken.yaml").write_text("schema: 1\nlabel: [unclosed\n", encoding="utf-8")
+    return out
+
+
+def test_lists_every_case_and_the_broken_file(folder: Path, capsys) -> None:
+    assert main(["list", str(folder)]) == 0
+    out, err = capsys.readouterr()
+    lines = out.splitlines()
+    assert lines[0].startswith("FILE") and "LEADING CAUSE" in lines[0] and "PENDING" in lines[0]
+    n = len(list(folder.glob("*.yaml")))
+    assert len([ln for ln in lines[1:] if not ln.startswith(" ")]) == n
+    assert any(ln.startswith("broken.yaml") and "DID NOT LOAD" in ln for ln in lines)
+    assert f"{n} of {n} case file(s)" in err and "1 did not load" in err
+
+
+def test_json_has_one_object_per_case(folder: Path, capsys) -> None:
+    assert main(["list", str(folder), "--json"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert len(data) == len(list(folder.glob("*.yaml")))
+    by_file = {d["file"]: d for d in data}
+    assert (
+        by_file["broken.yaml"]["ok"] is False
+        and "not valid YAML" in by_file["broken.yaml"]["error"]
+    )
+    distal = by_file["distal-rta-classic.yaml"]
+    assert distal["ok"] and distal["draws"] == 2 and distal["latest_taken"] == "2026-11-22T13:30"
+    assert set(distal) >= {"label", "leading", "pending", "next_test", "loading_expected"}
+
+
+def test_search_terms_filter_and_report_the_matched_values(folder: Path, capsys) -> None:
+    assert main(["list", str(folder), "--json", "k<3.0"]) == 0
+    data = json.loads(capsys.readouterr().out)
+    assert data, "the demo library has a case with potassium below 3.0"
+    for d in data:
+        assert d["match"]["values"][0]["field"] == "serum.potassium"
+        assert d["match"]["values"][0]["value"] < 3.0
+        assert d["match"]["values"][0]["status"] in ("measured", "unusual")
+    assert main(["list", str(folder), "k<3.0"]) == 0
+    assert "at draw" in capsys.readouterr().out
+
+
+def test_default_folder_comes_from_workup_cases(folder: Path, capsys, monkeypatch) -> None:
+    monkeypatch.setenv("WORKUP_CASES", str(folder))
+    assert main(["list", "is:broken", "--json"]) == 0
+    assert [d["file"] for d in json.loads(capsys.readouterr().out)] == ["broken.yaml"]
+
+
+def test_cohort_csv(folder: Path, tmp_path: Path, capsys) -> None:
+    target = tmp_path / "audit.csv"
+    assert main(["list", str(folder), "--cohort", "--csv", str(target)]) == 0
+    rows = list(csv.reader(io.StringIO(target.read_text(encoding="utf-8"))))
+    assert rows[0][0] == "month" and sum(int(r[4]) for r in rows[1:]) == len(
+        list(folder.glob("*.yaml"))
+    )
+    assert main(["list", str(folder), "--cohort"]) == 0
+    assert "By leading pattern" in capsys.readouterr().out
+
+
+@pytest.mark.parametrize(
+    ("args", "code", "message"),
+    [
+        (["list", "/no/such/folder/anywhere"], 2, "no such folder"),
+        (["list", "{folder}", "uga>0"], 2, "unknown index or analyte"),
+        (["list", "{folder}", "--csv", "x.csv"], 2, "--csv needs --cohort"),
+        (["list", "{folder}", "--cohort", "--csv", "{tmp}/a-file/a.csv"], 1, "cannot write"),
+    ],
+)
+def test_exit_codes(folder: Path, tmp_path: Path, capsys, args, code, message) -> None:
+    (tmp_path / "a-file").write_text("a file, so no folder can be made here", encoding="utf-8")
+    argv = [a.format(folder=folder, tmp=tmp_path) for a in args]
+    assert main(argv) == code
+    assert message in capsys.readouterr().err
+
+
+def test_rebuild_discards_the_cache(folder: Path, capsys) -> None:
+    assert main(["list", str(folder), "--json"]) == 0
+    first = capsys.readouterr().out
+    assert main(["list", str(folder), "--json", "--rebuild"]) == 0
+    assert capsys.readouterr().out == first
