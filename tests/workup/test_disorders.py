@@ -13,13 +13,18 @@ from __future__ import annotations
 from typing import Any
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
+from workup import indices
 from workup.assess import assess
 from workup.caseio import case_from_data
 from workup.disorders import analyse
-from workup.findings import Disorder, Finding, Status
+from workup.findings import Disorder, DrawResult, Finding, Status
 from workup.inputs import DrawInputs
 from workup.model import GasSample
+from workup.patterns import rank
+from workup.settings import DEFAULTS
 
 
 def _case(serum: dict[str, Any], gas: dict[str, Any] | None = None, **extra: Any):
@@ -217,3 +222,31 @@ def test_rules_band_comes_from_the_index_when_present() -> None:
 def test_rules_capillary_sample_noted() -> None:
     x = _x({"bicarbonate": 15.0}, {"ph": 7.32, "pco2": 30.0}, sample=GasSample.capillary)
     assert any("capillary" in e.text for e in analyse(x, _gap(10))[0].evidence)
+
+
+# Robustness: any values within the analytes' hard limits give a well-formed answer.
+
+
+def _maybe(lo: float, hi: float):
+    return st.one_of(st.none(), st.floats(lo, hi, allow_nan=False))
+
+
+@settings(max_examples=150, deadline=None)
+@given(
+    ph=_maybe(6.5, 8.0), pco2=_maybe(5, 200), gas_hco3=_maybe(1, 70), hco3=_maybe(1, 70),
+    na=_maybe(80, 200), cl=_maybe(40, 160), alb=_maybe(3, 80), k=_maybe(0.8, 12),
+    venous=st.booleans(),
+)  # fmt: skip
+def test_any_values_give_one_primary_first(ph, pco2, gas_hco3, hco3, na, cl, alb, k, venous):
+    gas = {k_: v for k_, v in (("ph", ph), ("pco2", pco2), ("bicarbonate", gas_hco3)) if v}
+    serum = {k_: v for k_, v in (("bicarbonate", hco3), ("sodium", na), ("chloride", cl),
+                                 ("albumin", alb), ("potassium", k)) if v}  # fmt: skip
+    x = DrawInputs(serum=serum, gas=gas, sample=GasSample.venous if venous else GasSample.arterial)
+    found = indices.compute_all(x)
+    ds = analyse(x, found)
+    if ds:
+        assert ds[0].primary and sum(d.primary for d in ds) == 1
+        assert len({d.id for d in ds}) == len(ds)
+        assert ds[0].compensation in (None, "appropriate", "insufficient", "excessive")
+    ranking = rank([DrawResult("d", x, found, ds)], None, DEFAULTS)
+    assert len(ranking.calls) == 7
