@@ -26,9 +26,13 @@ class Judge:
     """
 
     status: Status = Status.ok
+    """The worst status implied so far."""
     invalid: list[str] = field(default_factory=list)
+    """Reasons the value is not valid."""
     cautions: list[str] = field(default_factory=list)
+    """Caveats that leave the value usable."""
     notes: list[str] = field(default_factory=list)
+    """Readings and stated assumptions."""
 
     def note(self, text: str) -> None:
         """A reading or an assumption that does not change the status."""
