@@ -217,7 +217,8 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
             word = "present" if ug > GLUCOSURIA_ABOVE else "absent"
             out.by_key["glucosuria"] = Reading(
                 "glucosuria", word, ug, r.label, None, 1.0,
-                f"urine glucose {fmt(ug)} mmol/L with plasma glucose {fmt(sg)} ({r.label})",
+                f"urine glucose {fmt(round(ug, 1))} mmol/L with plasma glucose {fmt(round(sg, 1))} "
+                f"({r.label})",
             )  # fmt: skip
     if acid_test_ph:
         low, label = min(acid_test_ph)
@@ -445,12 +446,12 @@ def judge(rd: Readings, s: Settings) -> tuple[Tally, AmmoniumCall | None]:
                 ("distal_rta", 1.5, "typical of classic distal RTA"),
                 ("hyperkalemic_distal_rta", -2.5, "it is defined by hyperkalemia"),
                 ("hypoaldosteronism", -3.0, "type 4 is defined by hyperkalemia"),
-                ("ckd_acidosis", -0.5, ""),
+                ("ckd_acidosis", -0.5, "CKD seldom lowers potassium"),
             ],
             "hyper": [
                 ("hyperkalemic_distal_rta", 2.0, "fits a voltage defect"),
                 ("hypoaldosteronism", 2.0, "fits low aldosterone"),
-                ("ckd_acidosis", 0.5, ""),
+                ("ckd_acidosis", 0.5, "reduced kidney function raises potassium"),
                 ("distal_rta", -2.0, "classic distal RTA has a low or normal potassium"),
                 ("gi_bicarbonate_loss", -1.0, "gut loss lowers potassium"),
                 ("proximal_rta", -1.0, "proximal RTA wastes potassium"),
