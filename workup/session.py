@@ -34,6 +34,7 @@ from workup.journal import (
 from workup.locking import CaseLock, CaseLockedError, LockInfo, current_holder
 from workup.migrations import case_from_bytes_migrated
 from workup.model import Case
+from workup.privacy import PrivacyWarning, check_folder
 from workup.roundtrip import RoundTripError, roundtrip_text
 from workup.storage import (
     Backup,
@@ -41,6 +42,7 @@ from workup.storage import (
     atomic_write_text,
     backup_current,
     read_with_fingerprint,
+    remove_stale_temp_files,
 )
 
 __all__ = [
@@ -126,6 +128,8 @@ class CaseSession:
             self.notes.append(lock.note)
         self.pending_draft: Draft | None = None
         """A draft left by an earlier session of this case, if any (offer to restore it)."""
+        self.privacy: list[PrivacyWarning] = []
+        """Other users can reach the case's folder or files: each warning carries its fix."""
 
     # -- opening -------------------------------------------------------------------------
 
@@ -151,6 +155,8 @@ class CaseSession:
         s = cls(path, case, base, lock, holder)
         if lock is not None:
             s._find_draft()
+            remove_stale_temp_files(path.parent, path.name)
+        s._check_privacy()
         return s
 
     @classmethod
@@ -206,6 +212,10 @@ class CaseSession:
         if read_only:
             return None, current_holder(path)
         return CaseLock.acquire(path), None
+
+    def _check_privacy(self) -> None:
+        self.privacy = check_folder(self.path.parent)
+        self.notes.extend(w.format() for w in self.privacy)
 
     def _find_draft(self) -> None:
         d = draft_for(self.path)

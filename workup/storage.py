@@ -87,22 +87,24 @@ def make_private_dir(folder: str | Path) -> Path:
     return folder
 
 
-def temp_files(folder: str | Path) -> list[Path]:
-    """Temporary files an interrupted write left in ``folder`` (``.NAME.*.tmp``)."""
+def temp_files(folder: str | Path, name: str = "*") -> list[Path]:
+    """Temporary files an interrupted write of ``name`` left in ``folder`` (``.NAME.*.tmp``)."""
     folder = Path(folder)
     if not folder.is_dir():
         return []
-    return sorted(p for p in folder.glob(".*.tmp") if p.is_file())
+    return sorted(p for p in folder.glob(f".{name}.*.tmp") if p.is_file())
 
 
-def remove_stale_temp_files(folder: str | Path, older_than: float = 600.0) -> list[Path]:
-    """Delete temporary files older than ``older_than`` seconds; returns what was removed.
+def remove_stale_temp_files(
+    folder: str | Path, name: str = "*", older_than: float = 600.0
+) -> list[Path]:
+    """Delete temporary files of ``name`` older than ``older_than`` seconds; returns them.
 
     Young ones are kept: another process may be writing them right now.
     """
     removed = []
     now = time.time()
-    for p in temp_files(folder):
+    for p in temp_files(folder, name):
         with contextlib.suppress(OSError):
             if now - p.stat().st_mtime > older_than:
                 p.unlink()

@@ -21,6 +21,7 @@ def case_file(tmp_path, cases_dir) -> Path:
     lib.mkdir(mode=0o700)
     target = lib / "case.yaml"
     target.write_bytes((cases_dir / "type4-hypoaldosteronism.yaml").read_bytes())
+    os.chmod(target, 0o600)
     return target
 
 
@@ -254,3 +255,26 @@ def test_a_broken_hand_edit_is_replaced_in_full_when_forced(case_file):
         assert not result.kept_comments and result.note
         assert load_case(case_file) == s.case
         assert list_backups(case_file)[0].path.read_text() == "label: [broken\n"
+
+
+def test_open_reports_a_folder_other_users_can_read(case_file):
+    with CaseSession.open(case_file) as s:
+        assert s.privacy == []
+    os.chmod(case_file.parent, 0o755)
+    os.chmod(case_file, 0o644)
+    with CaseSession.open(case_file) as s:
+        commands = [w.command for w in s.privacy]
+        assert commands == [f"chmod 700 {case_file.parent}", f"chmod 600 {case_file}"]
+        assert any("chmod 700" in n for n in s.notes)
+        s.save(_with_notes(s, "saved privately"))
+    assert os.stat(case_file).st_mode & 0o077 == 0  # a save makes the file itself private
+
+
+def test_open_sweeps_old_temp_files_of_this_case_only(case_file):
+    old = case_file.parent / ".case.yaml.x1.tmp"
+    other = case_file.parent / ".other.yaml.x2.tmp"
+    for p in (old, other):
+        p.write_text("partial")
+        os.utime(p, (0, 0))
+    with CaseSession.open(case_file):
+        assert not old.exists() and other.exists()

@@ -74,8 +74,11 @@ def test_stale_temp_files_are_removed_but_young_ones_kept(tmp_path):
     old.write_text("partial")
     young.write_text("partial")
     os.utime(old, (0, 0))
-    assert remove_stale_temp_files(tmp_path, older_than=60) == [old]
-    assert temp_files(tmp_path) == [young]
+    other = tmp_path / ".other.yaml.abc.tmp"
+    other.write_text("someone else's")
+    os.utime(other, (0, 0))
+    assert remove_stale_temp_files(tmp_path, "case.yaml", older_than=60) == [old]
+    assert temp_files(tmp_path) == [young, other]
 
 
 def test_backup_keeps_the_previous_version_privately(tmp_path):
