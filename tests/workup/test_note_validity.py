@@ -16,6 +16,7 @@ from workup.caseio import case_from_bytes, load_case
 from workup.cautions import CAUTION_TEXT
 from workup.cli import main
 from workup.findings import Finding, Status
+from workup.formatting import fmt_value
 from workup.indices import REGISTRY
 from workup.note import draft_note
 
@@ -52,8 +53,9 @@ UAG_NOT_VALID = Finding(
 def test_not_valid_index_is_not_stated_as_a_finding(diarrhea, style, fmt) -> None:
     case, a = diarrhea
     note = _flat(draft_note(_with(a, UAG_NOT_VALID), case, style, fmt))
+    name = "UAG" if style == "brief" else "the urine anion gap"
     assert (
-        "the urine anion gap was not interpretable (urine sodium 8 is below 25: too little "
+        f"{name} was not interpretable (urine sodium 8 is below 25: too little "
         "distal sodium delivery to read the gap)" in note
     )
     assert "17.0" not in note and "+17" not in note
@@ -70,8 +72,9 @@ def test_not_valid_urine_anion_gap_of_a_real_case_is_worded_as_not_interpretable
     assert uag.status is Status.not_valid
     for style in STYLES:
         note = _flat(draft_note(a, case, style))
-        assert "urine anion gap was not interpretable" in note
-        assert f"urine anion gap is {uag.value}" not in note
+        name = "UAG" if style == "brief" else "urine anion gap"
+        assert f"{name} was not interpretable" in note
+        assert fmt_value(uag) not in note
 
 
 @pytest.mark.parametrize("style", STYLES)
@@ -83,10 +86,13 @@ def test_caution_index_is_stated_with_its_caveat(diarrhea, style) -> None:
         interpretation="adequate",
     )  # fmt: skip
     note = _flat(draft_note(_with(a, uog), case, style))
-    assert (
-        "the urine osmolal gap is 212 mOsm/kg (in keeping with adequate ammonium excretion; "
-        "read with caution: unmeasured urine osmoles (mannitol, contrast) may raise the gap)"
-    ) in note
+    stated = (
+        "UOG is 212 mOsm/kg (adequate NH4; "
+        if style == "brief"
+        else "the urine osmolal gap is 212 mOsm/kg (in keeping with adequate ammonium excretion; "
+    )
+    caveat = "read with caution: unmeasured urine osmoles (mannitol, contrast) may raise the gap)"
+    assert stated + caveat in note
 
 
 @pytest.mark.parametrize("style", STYLES)

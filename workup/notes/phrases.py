@@ -69,6 +69,46 @@ READING: dict[str, dict[str, str]] = {
     },
 }
 
+# The daily note's shorter words for the same readings (anything not listed reads as in READING).
+BRIEF_READING: dict[str, dict[str, str]] = {
+    "delta_ratio": {
+        "pure_normal_gap": "pure normal gap",
+        "mixed_high_and_normal_gap": "mixed-gap range, also seen in kidney failure",
+        "high_gap": "high gap",
+        "high_gap_plus_alkalosis": "high gap with added alkalosis",
+    },
+    "urine_ph": {"acidified": "acidified", "not_acidified": "not acidified"},
+    "urine_anion_gap": {
+        "negative": "negative",
+        "indeterminate": "indeterminate",
+        "positive": "positive",
+    },
+    "urine_osmolal_gap": {
+        "adequate": "adequate NH4",
+        "indeterminate": "indeterminate",
+        "low": "low NH4",
+    },
+    "urine_ammonium_estimate": {"low": "low"},
+    "urine_ammonium_creatinine_ratio": {"low": "low"},
+    "urine_blood_pco2": {"normal": "normal", "low": "low"},
+    "fe_phosphate": {"wasting": "wasting"},
+}
+
+# The daily note's names for the indices; trade abbreviations keep their usual spelling.
+BRIEF_LABEL: dict[str, str] = {
+    "anion_gap": "AG",
+    "anion_gap_albumin_corrected": "albumin-corrected AG",
+    "delta_ratio": "delta ratio",
+    "urine_ph": "urine pH",
+    "urine_anion_gap": "UAG",
+    "urine_osmolal_gap": "UOG",
+    "urine_ammonium_creatinine_ratio": "urine NH4/creatinine",
+    "ttkg": "TTKG",
+    "urine_potassium_creatinine_ratio": "urine K/creatinine",
+    "egfr": "eGFR",
+    "fe_bicarbonate": "FEHCO3",
+}
+
 # Which way an index points on renal ammonium excretion, for spotting discordant measures.
 AMMONIUM_DIRECTION: dict[str, dict[str, str]] = {
     "urine_anion_gap": {"negative": "adequate", "positive": "low"},
@@ -80,12 +120,14 @@ AMMONIUM_DIRECTION: dict[str, dict[str, str]] = {
 _PANEL_WORDS = {"serum": "serum", "blood_gas": "blood gas", "urine": "urine"}
 
 
-def reading(f: Finding) -> str | None:
-    """The interpretation of ``f`` in words, or None when it has none."""
+def reading(f: Finding, brief: bool = False) -> str | None:
+    """The interpretation of ``f`` in words (shorter when ``brief``), or None when it has none."""
     if f.interpretation is None:
         return None
     if f.id == "egfr":
-        return f"KDIGO category {f.interpretation}"
+        return f.interpretation if brief else f"KDIGO category {f.interpretation}"
+    if brief and f.interpretation in BRIEF_READING.get(f.id, {}):
+        return BRIEF_READING[f.id][f.interpretation]
     return READING.get(f.id, {}).get(f.interpretation, f.interpretation.replace("_", " "))
 
 
@@ -163,7 +205,7 @@ def clause(
     caveats already written, so a caveat shared by two indices is written once.
     """
     if stated(f):
-        words = reading(f) if with_reading else None
+        words = reading(f, brief) if with_reading else None
         return f"{label} is {value_of(f)}" + caution_suffix(f, words, seen)
     if f.status is Status.not_valid:
         why = _once(caveat(f), seen)

@@ -62,6 +62,8 @@ class Context:
         f = self.finding(id)
         if f is None:
             return None
+        if self.brief:
+            label = ph.BRIEF_LABEL.get(id, label)
         return ph.clause(f, label, self.brief, with_reading, self.said)
 
     @property
@@ -147,10 +149,12 @@ def _expected_clause(c: Context, id: str) -> str | None:
     if f is None:
         return None
     label = _EXPECTED_LABEL[id]
+    if c.brief:
+        label = label.removeprefix("the ").replace(" (Winters' formula)", "")
     band = ph.band_of(f)
     if ph.stated(f) and band is not None:
         # The expected range is the number that matters here; the midpoint adds nothing.
-        return f"{label} is {band}" + ph.caution_suffix(f, None, c.said)
+        return f"{label} {'' if c.brief else 'is '}{band}" + ph.caution_suffix(f, None, c.said)
     return c.clause(id, label, with_reading=False)
 
 
@@ -171,7 +175,9 @@ def _evidence(ev: tuple[Evidence, ...], c: Context, limit: int | None = None) ->
         text = ph.tidy(e.text)
         lead, sep, why = text.rpartition(": ")
         if sep and len(lead) > LONG_LEAD:
-            if lead in c.leads:
+            if c.brief:
+                text = f"{lead.split('; ')[0]}: {why}"  # a daily note keeps the gist
+            elif lead in c.leads:
                 text = f"{lead.split('; ')[0]}, as above: {why}"
             c.leads.add(lead)
         out.append(text)
@@ -220,6 +226,9 @@ def acid_base_section(c: Context) -> Section:
         return s
     primary = [d for d in c.a.disorders if d.primary]
     added = [d for d in c.a.disorders if not d.primary]
+    if c.brief:
+        s.sentences.append(_acid_base_brief(c, primary, added))
+        return s
     for d in primary:
         text = f"{_disorder_name(d)} is the primary disorder"
         if not c.brief and d.evidence:
@@ -240,6 +249,28 @@ def acid_base_section(c: Context) -> Section:
     elif primary:
         s.sentences.append("No mixed disorder is identified.")
     return s
+
+
+def _acid_base_brief(c: Context, primary: list[Disorder], added: list[Disorder]) -> str:
+    """One sentence: the primary disorder, its compensation and band, and any added disorder."""
+    parts = []
+    for d in primary:
+        text = _disorder_name(d)
+        ids = COMPENSATION_INDEX.get(d.id, {})
+        bands = [
+            x for x in (_expected_clause(c, i) for i in ids.get(d.detail, ids.get(None, ()))) if x
+        ]
+        if d.compensation:
+            text += f", compensation {d.compensation}"
+        if bands:
+            text += f" ({'; '.join(bands)})"
+        parts.append(text)
+    if added:
+        lead = "also " if primary else ""
+        parts.append(lead + _and([_article(_disorder_name(d)) for d in added]))
+    elif primary:
+        parts.append("no mixed disorder")
+    return ph.sentence("; ".join(parts))
 
 
 def _compensation(c: Context, d: Disorder) -> list[str]:
@@ -326,8 +357,11 @@ def _ammonium_label(f: Finding) -> str:
 
 def renal_acid_section(c: Context) -> Section:
     """Urine pH, the urine anion and osmolal gaps or measured ammonium, with their caveats."""
-    s = Section("renal_acid", "Renal acid excretion")
+    s = Section("renal_acid", "Renal acid" if c.brief else "Renal acid excretion")
     draw = c.draw
+    if draw is not None and not draw.urine.measurements() and c.brief:
+        s.sentences.append("Not assessed: no urine with this draw; a spot urine is suggested.")
+        return s
     if draw is not None and not draw.urine.measurements():
         s.sentences.append(
             "Not assessed: no urine studies were entered with this draw; a spot urine for "
@@ -395,6 +429,14 @@ _K_READING = {
 }
 
 
+_K_READING_BRIEF = {
+    ("hypo", "low"): "appropriately low: renal conservation",
+    ("hypo", "high"): "inappropriately high: renal K loss",
+    ("hyper", "low"): "inappropriately low: reduced aldosterone effect",
+    ("hyper", "high"): "appropriately high",
+}
+
+
 def _kalemia(c: Context) -> str | None:
     for id in ("ttkg", "urine_potassium_creatinine_ratio"):
         f = c.finding(id)
@@ -422,9 +464,12 @@ def _k_clause(c: Context, id: str, label: str, kalemia: str | None) -> str | Non
         return None
     if not ph.stated(f):
         return c.clause(id, label)
-    words = _K_READING.get((kalemia or "", f.interpretation or ""))
+    table = _K_READING_BRIEF if c.brief else _K_READING
+    words = table.get((kalemia or "", f.interpretation or ""))
     if words is None:
         return c.clause(id, label)
+    if c.brief:
+        label = ph.BRIEF_LABEL.get(id, label)
     return f"{label} is {ph.value_of(f)}" + ph.caution_suffix(f, words, c.said)
 
 
@@ -434,14 +479,23 @@ def potassium_section(c: Context) -> Section:
     draw = c.draw
     kalemia = _kalemia(c)
     m = None if draw is None else draw.serum.measurements().get("potassium")
+    serum_k = None
     if m is None:
         s.sentences.append("Serum potassium is not available.")
+    elif c.brief:
+        # Joined to the kidney's handling below, one sentence in a daily note.
+        serum_k = (
+            f"serum K {written_number(Panel.serum, 'potassium', m)} {m.unit} "
+            f"({_KALEMIA_WORD[kalemia or 'normal']})"
+        )
     else:
         s.sentences.append(
             f"Serum potassium {written_number(Panel.serum, 'potassium', m)} {m.unit} is "
             f"{_KALEMIA_WORD[kalemia or 'normal']}."
         )
     if draw is not None and not draw.urine.measurements():
+        if serum_k:
+            s.sentences.append(ph.sentence(serum_k))
         return s  # the renal section already says no urine was entered
     ratio_id, ratio_label = "urine_potassium_creatinine_ratio", "the urine K/creatinine ratio"
     ratio_f = c.finding(ratio_id)
@@ -452,7 +506,7 @@ def potassium_section(c: Context) -> Section:
         # In reading order, so that a caveat shared by both is written in full first.
         ttkg = _k_clause(c, "ttkg", "the TTKG", kalemia)
         parts = [ttkg, _k_clause(c, ratio_id, ratio_label, kalemia)]
-    parts = [p for p in parts if p]
+    parts = [p for p in [serum_k, *parts] if p]
     if parts:
         s.sentences.append(ph.sentence(ph.join_clauses(parts)))
     return s
@@ -476,7 +530,7 @@ _KIDNEY_BRIEF = {"egfr": "the eGFR", "fe_bicarbonate": "the FEHCO3"}
 def kidney_section(c: Context) -> Section:
     """eGFR and the tubular studies that were done (absent ones are not listed as gaps here:
     the causes and suggested tests say which would help)."""
-    s = Section("kidney", "Kidney function and tubular studies")
+    s = Section("kidney", "Kidney" if c.brief else "Kidney function and tubular studies")
     parts = []
     for id, label in _KIDNEY:
         f = c.finding(id)
@@ -538,6 +592,8 @@ def _causes_brief(c: Context, calls: list[PatternCall]) -> list[str]:
         rest = calls
     possible = [p.name for p in rest if p.verdict is not Verdict.unlikely]
     unlikely = [p.name for p in rest if p.verdict is Verdict.unlikely]
+    if not possible and out == [] and c.a.ranking_notes:
+        return out  # nothing ranked at all: the ranking's note says why, a list adds nothing
     if possible:
         out.append(ph.sentence("Also possible: " + ", ".join(possible)))
     if unlikely:
@@ -583,7 +639,7 @@ def _causes_full(c: Context, calls: list[PatternCall]) -> list[str]:
 
 def next_tests_section(c: Context) -> Section:
     """The suggested tests, most useful first (the first three in a daily note)."""
-    s = Section("next_tests", "Suggested next")
+    s = Section("next_tests", "Next" if c.brief else "Suggested next")
     tests = c.a.next_tests[:3] if c.brief else c.a.next_tests
     if c.brief:
         if tests:
