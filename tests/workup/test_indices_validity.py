@@ -13,7 +13,7 @@ import pytest
 
 from workup.context import Flag
 from workup.findings import Status
-from workup.indices import serum_gaps, tubular, urine_acid
+from workup.indices import gas, serum_gaps, tubular, urine_acid
 from workup.indices.kidney import creatinine_mg_dl
 from workup.inputs import DrawInputs
 from workup.model import LoadingTest, Sex
@@ -28,6 +28,10 @@ BASES = {
     "delta": (
         serum_gaps.delta_ratio,
         DrawInputs(serum={**NAGMA, "chloride": 100}, gas=GAS),
+    ),
+    "winters": (
+        gas.expected_pco2,
+        DrawInputs(serum={"bicarbonate": 12}, gas={"ph": 7.22, "pco2": 26}),
     ),
     "uog": (urine_acid.urine_osmolal_gap, DrawInputs(serum=NAGMA, gas=GAS, urine=UOG_URINE)),
     "uph_test": (
@@ -67,8 +71,13 @@ def _with(x: DrawInputs, **change) -> DrawInputs:
         ("osm", {"serum": {"lactate": 8}}, Status.caution, "lactic"),
         ("osm", {"context": frozenset({Flag.known_ckd})}, Status.caution, "kidney disease"),
         ("osm", {"context": frozenset({Flag.unmeasured_urine_osmoles})}, Status.caution, "mannitol"),
-        # Delta ratio: an alkalemic pH makes the low bicarbonate likely compensation.
+        # Delta ratio: an alkalemic pH makes the low bicarbonate likely compensation; infused
+        # bicarbonate breaks the link between its fall and the gap.
         ("delta", {"gas": {"ph": 7.5, "pco2": 25}}, Status.caution, "alkalemic"),
+        ("delta", {"during": LoadingTest.bicarbonate_loading}, Status.not_valid, "infused"),
+        # Compensation rules assume a steady state, which an acute load has not reached.
+        ("winters", {"during": LoadingTest.bicarbonate_loading}, Status.caution, "steady state"),
+        ("winters", {"during": LoadingTest.ammonium_chloride}, Status.caution, "steady state"),
         # Urine osmolal gap: not an acidosis while bicarbonate is infused; no acidosis at all.
         ("uog", {"during": LoadingTest.bicarbonate_loading}, Status.not_valid, "loading"),
         ("uog", {"serum": {"bicarbonate": 26, "chloride": 100}}, Status.caution, "not low"),

@@ -12,6 +12,7 @@ import math
 from workup.findings import Finding, missing
 from workup.indices._common import Judge, bicarbonate, finding, fmt
 from workup.inputs import DrawInputs
+from workup.model import LoadingTest
 
 HH_FORMULA = "pH = 6.1 + log10(HCO3 / (0.03 × pCO2)); [H+] nmol/L = 24 × pCO2 / HCO3"
 HH_SOURCE = (
@@ -122,6 +123,11 @@ def _reading(measured: float, low: float, high: float, above: str, below: str) -
 def _gas_common(x: DrawInputs, j: Judge) -> None:
     if x.venous:
         j.caution(VENOUS_NOTE.format(sample=x.sample.value))
+    if x.during in (LoadingTest.bicarbonate_loading, LoadingTest.ammonium_chloride):
+        j.caution(
+            f"taken during {x.during.value.replace('_', ' ')}: the rules assume a steady state "
+            "that an acute load has not yet reached"
+        )
 
 
 def expected_pco2(x: DrawInputs) -> Finding:

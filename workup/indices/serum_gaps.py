@@ -6,6 +6,7 @@ from workup.context import Flag
 from workup.findings import Finding, Status, missing
 from workup.indices._common import Judge, finding, fmt, ratio
 from workup.inputs import DrawInputs
+from workup.model import LoadingTest
 
 AG_FORMULA = "AG = Na − (Cl + HCO3)"
 AG_SOURCE = (
@@ -116,6 +117,8 @@ def delta_ratio(x: DrawInputs) -> Finding:
     j = Judge()
     for n in notes:
         j.caution(n)
+    if x.during is LoadingTest.bicarbonate_loading:
+        j.not_valid("bicarbonate is being infused: its fall no longer mirrors the gap")
     if hco3 >= s.bicarbonate_low:
         j.not_valid(
             f"bicarbonate {fmt(hco3)} is not low: there is no acidosis whose gap can be split"
