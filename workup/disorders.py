@@ -95,6 +95,8 @@ class Picture:
     """Anion gap, albumin-corrected when possible."""
     gap_words: str
     """Which gap it is, for evidence."""
+    gap_index: str | None
+    """The finding id the gap comes from."""
     gas_usable: bool
     """True when pH and pCO2 are present and pass the Henderson–Hasselbalch check."""
     gas_words: str | None
@@ -122,18 +124,21 @@ def picture(x: DrawInputs, findings: dict[str, Finding]) -> Picture:
     else:
         hco3, hco3_words = None, ""
 
-    gap, gap_words = None, ""
+    gap, gap_words, gap_index = None, "", None
     for fid, words in (
         ("anion_gap_albumin_corrected", "albumin-corrected anion gap"),
         ("anion_gap", "anion gap (not albumin-corrected)"),
     ):
         f = findings.get(fid)
         if f is not None and f.usable:
-            gap, gap_words = f.value, words
+            caution = " (caution: " + f.reasons[0] + ")" if f.status is Status.caution else ""
+            gap, gap_words, gap_index = f.value, words + caution, fid
             break
 
     if ph is None or pco2 is None:
-        return Picture(ph, pco2, hco3, hco3_words, gap, gap_words, False, "no complete blood gas")
+        return Picture(
+            ph, pco2, hco3, hco3_words, gap, gap_words, gap_index, False, "no complete blood gas"
+        )
     usable, words = True, None
     hh = findings.get("henderson_hasselbalch_ph")
     if hh is not None and hh.value is not None:
@@ -157,7 +162,7 @@ def picture(x: DrawInputs, findings: dict[str, Finding]) -> Picture:
                     f"{fmt_ph(computed)} (tolerance {fmt(s.hh_ph_tolerance)})"
                     + ("; the gas was set aside" if not usable else "; read with caution")
                 )
-    return Picture(ph, pco2, hco3, hco3_words, gap, gap_words, usable, words)
+    return Picture(ph, pco2, hco3, hco3_words, gap, gap_words, gap_index, usable, words)
 
 
 def _band(findings: dict[str, Finding], fid: str, low: float, high: float) -> tuple[float, float]:
@@ -194,17 +199,17 @@ class _Builder:
 
 def _delta(
     pic: Picture, x: DrawInputs, findings: dict[str, Finding]
-) -> tuple[float | None, str | None]:
-    """The delta ratio and its reading (contract words), from the index or computed here."""
+) -> tuple[float | None, str | None, bool]:
+    """The delta ratio, its reading (contract words) and whether the index is in caution."""
     f = findings.get("delta_ratio")
     if f is not None and f.usable and f.interpretation:
-        return f.value, f.interpretation
+        return f.value, f.interpretation, f.status is Status.caution
     s = x.settings
     if pic.gap is None or pic.hco3 is None:
-        return None, None
+        return None, None, False
     fall = s.bicarbonate_normal - pic.hco3
     if fall < s.delta_min_bicarbonate_fall:
-        return None, None
+        return None, None, False
     ratio = (pic.gap - s.anion_gap_mean) / fall
     if ratio < 0.4:
         word = "pure_normal_gap"
@@ -214,7 +219,7 @@ def _delta(
         word = "high_gap"
     else:
         word = "high_gap_plus_alkalosis"
-    return ratio, word
+    return ratio, word, False
 
 
 def _metabolic_acidosis(
@@ -233,7 +238,7 @@ def _metabolic_acidosis(
         ev = Evidence("the anion gap cannot be computed: enter serum sodium and chloride")
         b.add("metabolic_acidosis", primary, [*lead, ev], detail, compensation)
         return
-    gap_index = "anion_gap_albumin_corrected" if "albumin" in pic.gap_words else "anion_gap"
+    gap_index = pic.gap_index
     if pic.gap <= s.anion_gap_upper:
         ev = Evidence(
             f"{pic.gap_words} {fmt(pic.gap)} is within the upper limit of "
@@ -247,16 +252,17 @@ def _metabolic_acidosis(
         gap_index,
     )
     b.add("high_gap_metabolic_acidosis", primary, [*lead, ev], detail, compensation)
-    ratio, word = _delta(pic, x, findings)
+    ratio, word, caution = _delta(pic, x, findings)
     if ratio is None:
         return
+    shown = f"delta ratio {fmt(ratio)}" + (" (caution status)" if caution else "")
     if word in ("pure_normal_gap", "mixed_high_and_normal_gap"):
         b.add(
             "normal_gap_metabolic_acidosis",
             False,
             [
                 Evidence(
-                    f"delta ratio {fmt(ratio)} is below {fmt(DELTA_MIXED_BELOW)}: bicarbonate "
+                    f"{shown} is below {fmt(DELTA_MIXED_BELOW)}: bicarbonate "
                     "fell more than the gap rose, so a normal-gap acidosis is added (Brandis)",
                     "delta_ratio",
                 )
@@ -268,7 +274,7 @@ def _metabolic_acidosis(
             False,
             [
                 Evidence(
-                    f"delta ratio {fmt(ratio)} is above {fmt(DELTA_ALKALOSIS_ABOVE)}: bicarbonate "
+                    f"{shown} is above {fmt(DELTA_ALKALOSIS_ABOVE)}: bicarbonate "
                     "fell less than the gap rose, so a metabolic alkalosis is added (or a "
                     "compensated respiratory acidosis was there before; Brandis)",
                     "delta_ratio",
@@ -292,7 +298,7 @@ def _masked_high_gap(b: _Builder, pic: Picture, x: DrawInputs) -> None:
                     f"{pic.gap_words} {fmt(pic.gap)} is above {fmt(x.settings.anion_gap_upper)}: "
                     "unmeasured anions point to a high-gap acidosis even though the "
                     "bicarbonate does not show it",
-                    "anion_gap_albumin_corrected" if "albumin" in pic.gap_words else "anion_gap",
+                    pic.gap_index,
                 )
             ],
         )

@@ -162,7 +162,8 @@ def _offer(out: Readings, key: str, f: Finding | None, draw: str) -> None:
         return
     r = Reading(
         key, f.interpretation, f.value, draw, f.id, STATUS_FACTOR[f.status],
-        f"{NAME.get(key, f.name)} {_num(key, f.value)}{_unit(f)} ({draw})",
+        f"{NAME.get(key, f.name)} {_num(key, f.value)}{_unit(f)} "
+        f"({draw}{', caution' if f.status is Status.caution else ''})",
     )  # fmt: skip
     if _better(r, out.by_key.get(key)):
         out.by_key[key] = r
