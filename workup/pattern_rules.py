@@ -48,7 +48,8 @@ tracks it better than the anion gap (Kamel et al., AJKD 1997; Kim et al., AJKD 1
 anion gap correlates poorly in some settings (Raphael et al., CJASN 2018; Uribarri & Oh, JASN
 2021)."""
 CORROBORATION = 0.5
-"""Extra weight for each weaker ammonium reading that agrees with the leading one."""
+"""Extra weight for each weaker ammonium reading that agrees with the leading one (× its
+reliability)."""
 
 FURO_ACIDIFIED_BELOW = 5.3
 """Urine pH below this in any sample of a furosemide–fludrocortisone or short ammonium-chloride
@@ -257,7 +258,7 @@ def ammonium(rd: Readings) -> AmmoniumCall | None:
     """Combine measured NH4, the urine osmolal gap and the urine anion gap into one call.
 
     The reading with the highest effective weight (base × reliability) leads; agreeing weaker
-    readings add :data:`CORROBORATION` each; disagreeing ones are named as outweighed and add
+    readings add :data:`CORROBORATION` × their reliability each; disagreeing ones are named as outweighed and add
     nothing. A not-valid reading never appears here (it was set aside in :func:`gather`).
     """
     cands = []
@@ -274,8 +275,6 @@ def ammonium(rd: Readings) -> AmmoniumCall | None:
     differ = [c for c in cands[1:] if _AMMONIUM_WORD[c[2].word] != word]
     level = "adequate (high)" if word == "high" else "low"
     text = f"{lead.text} reads ammonium excretion as {level}"
-    if lead.factor < 1:
-        text += " (caution status: half weight)"
     if agree:
         text += "; agreeing: " + ", ".join(c[2].text for c in agree)
     if differ:
@@ -283,7 +282,7 @@ def ammonium(rd: Readings) -> AmmoniumCall | None:
     aside = [v for k, v in rd.set_aside.items() if k in dict(AMMONIUM_SOURCES)]
     if aside:
         text += "; set aside: " + "; ".join(aside)
-    return AmmoniumCall(word, w + CORROBORATION * len(agree), lead, text)
+    return AmmoniumCall(word, w + sum(CORROBORATION * c[2].factor for c in agree), lead, text)
 
 
 Rule = tuple[str, float, str]
