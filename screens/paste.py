@@ -75,9 +75,9 @@ class PasteScreen(ModalScreen["Proposal | None"]):
     #paste-text { height: 6; border: none; }
     #paste-text:focus { border: none; background-tint: $accent 10%; }
     #paste-summary { height: 1; color: $text-muted; }
-    #paste-values { height: 1fr; min-height: 4; }
-    #paste-questions { height: 4; }
-    #paste-options { height: 3; }
+    #paste-values { height: 2fr; min-height: 4; }
+    #paste-questions { height: 1fr; min-height: 4; max-height: 10; }
+    #paste-options { height: auto; max-height: 5; }
     #paste-detail { height: 1; color: $text-muted; }
     """
 
