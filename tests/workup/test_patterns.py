@@ -216,6 +216,9 @@ def test_agreeing_readings_corroborate() -> None:
     })  # fmt: skip
     call = ammonium(rd)
     assert call is not None and call.weight == 2.5 and "agreeing" in call.text
+    rd.by_key["urine_anion_gap"] = _reading("urine_anion_gap", "negative", Status.caution)
+    call = ammonium(rd)
+    assert call is not None and call.weight == 2.25  # 2 + 0.5 × 0.5 for a caution corroboration
 
 
 def test_not_valid_finding_never_becomes_a_reading() -> None:
