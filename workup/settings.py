@@ -115,6 +115,9 @@ class Settings(BaseModel):
     """The delta ratio is not read when bicarbonate has fallen less than this (common practice)."""
 
     # --- added with the calculators of workup/indices ---
+    anion_gap_low_below: float = Field(3.0, json_schema_extra={"unit": "mmol/L"})
+    """An anion gap below this is called low and prompts a check for laboratory error, a
+    paraprotein, lithium, bromide or iodide (common practice; Kraut & Madias, CJASN 2007)."""
     pco2_low: float = Field(35.0, json_schema_extra={"unit": "mmHg"})
     """Lower limit of normal arterial pCO2; below it a respiratory alkalosis is considered (common
     practice)."""

@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import pytest
 
+from workup.context import Flag
 from workup.findings import Status
 from workup.indices import serum_gaps
 from workup.inputs import UREA_MMOL_PER_BUN_MG_DL, DrawInputs
@@ -135,3 +136,12 @@ def test_serum_osmolal_gap_needs_its_inputs():
     f = serum_gaps.serum_osmolal_gap(DrawInputs(serum={"sodium": 140}))
     assert f.status is Status.needs_input
     assert set(f.needs) == {"serum.osmolality", "serum.glucose", "serum.urea"}
+
+
+@pytest.mark.parametrize("flag", [Flag.paraprotein, Flag.lithium])
+def test_normal_gap_with_paraprotein_or_lithium_is_a_caution(flag):
+    # Kraut & Madias, CJASN 2007: a paraprotein or lithium lowers the gap.
+    values = {"sodium": 140, "chloride": 106, "bicarbonate": 24}
+    assert serum_gaps.anion_gap(serum(**values)).status is Status.ok
+    f = serum_gaps.anion_gap(DrawInputs(serum=values, context=frozenset({flag})))
+    assert f.status is Status.caution and "lowers the measured gap" in f.reasons[0]

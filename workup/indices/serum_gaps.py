@@ -42,7 +42,7 @@ def anion_gap(x: DrawInputs) -> Finding:
     if value > s.anion_gap_upper:
         reading = "high"
         reasons.append(f"above the upper limit of {s.anion_gap_upper:g}")
-    elif value < 3:
+    elif value < s.anion_gap_low_below:
         reading = "low"
         status = Status.caution
         reasons.append(
@@ -54,6 +54,14 @@ def anion_gap(x: DrawInputs) -> Finding:
         reasons.append(f"within the reference limit of {s.anion_gap_upper:g}")
     if "albumin" in x.serum and x.serum["albumin"] < s.albumin_normal - 5:
         reasons.append("albumin is low: read the albumin-corrected gap")
+    if reading != "high" and (x.has(Flag.paraprotein) or x.has(Flag.lithium)):
+        # A cationic paraprotein or lithium lowers the gap and can hide a high-gap acidosis.
+        status = Status.caution
+        reasons.insert(
+            0,
+            "a paraprotein or lithium lowers the measured gap: a normal value may hide "
+            "unmeasured anions",
+        )
     return Finding(
         "anion_gap", "Anion gap", value, "mmol/L", status, tuple(reasons), (),
         AG_FORMULA, AG_SOURCE, reading,
