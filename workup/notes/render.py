@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import re
 import textwrap
 import unicodedata
 
@@ -55,9 +56,15 @@ def ascii_text(text: str) -> str:
     return "".join(out)
 
 
+_DATE_TIME = re.compile(r"(\d{4}-\d{2}-\d{2}) (\d{2}:\d{2})")
+_KEEP = "\x00"  # stands in for a space that must not become a line break
+
+
 def _fill(text: str, indent: str = "", hang: str = "") -> list[str]:
-    # Never split a signed number or a hyphenated term across lines: it would read as two values.
-    return textwrap.wrap(
+    # Never split a signed number or a hyphenated term across lines (it would read as two
+    # values), nor a draw's date from its time.
+    text = _DATE_TIME.sub(rf"\1{_KEEP}\2", text)
+    lines = textwrap.wrap(
         text,
         WIDTH,
         initial_indent=indent,
@@ -65,11 +72,12 @@ def _fill(text: str, indent: str = "", hang: str = "") -> list[str]:
         break_on_hyphens=False,
         break_long_words=False,
     )
+    return [line.replace(_KEEP, " ") for line in lines]
 
 
 def render_text(sections: list[Section], case: Case, brief: bool) -> str:
     """The note as plain text: a lead-in per section, blank lines between sections in a consult."""
-    lines = [ascii_text(f"Acid-base assessment: {case.label}")]
+    lines = _fill(ascii_text(f"Acid-base assessment: {case.label}"))
     if not brief:
         lines.append("")
     for s in sections:
