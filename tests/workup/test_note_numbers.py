@@ -40,11 +40,14 @@ def numbers(text: str) -> list[str]:
 
 
 def _strings(obj: Any):
+    # Formulas and citations are not read into the note; leaving them out keeps their numbers
+    # (coefficients, years, pages) from excusing a stray number.
     if isinstance(obj, str):
         yield obj
     elif isinstance(obj, dict):
-        for v in obj.values():
-            yield from _strings(v)
+        for k, v in obj.items():
+            if k not in ("formula", "source"):
+                yield from _strings(v)
     elif isinstance(obj, list):
         for v in obj:
             yield from _strings(v)
@@ -149,3 +152,13 @@ def test_values_line_keeps_each_value_as_written(tmp_path) -> None:
 
 def test_number_pattern_reads_values_and_skips_names() -> None:
     assert numbers("pCO2 30 mmHg, NH4 +25.0, gap \u22125.5, HCO3 15") == ["30", "25.0", "5.5", "15"]
+
+
+def test_the_trace_catches_a_number_nobody_reported(capsys) -> None:
+    # Negative control: the check above must be able to fail.
+    path = ROOT / "cases" / "gi-loss-diarrhea.yaml"
+    reported = json_numbers(_assess_json(path, capsys))
+    entered = entered_numbers(path)
+    forged = "The anion gap is +31.7 mmol/L (high) in 4242 samples."
+    stray = [n for n in numbers(forged) if n not in reported and float(n) not in entered]
+    assert stray == ["31.7", "4242"]
