@@ -39,6 +39,7 @@ class Flag(StrEnum):
     urease_infection = "urease_infection"
     unmeasured_urine_osmoles = "unmeasured_urine_osmoles"
     liver_disease = "liver_disease"
+    acute_kidney_injury = "acute_kidney_injury"
 
 
 MEANING: dict[Flag, str] = {
@@ -69,6 +70,7 @@ MEANING: dict[Flag, str] = {
     Flag.urease_infection: "urinary infection with a urease-producing organism",
     Flag.unmeasured_urine_osmoles: "mannitol, contrast, glycols or other unmeasured urine osmoles",
     Flag.liver_disease: "advanced liver disease",
+    Flag.acute_kidney_injury: "acute kidney injury: creatinine not in a steady state",
 }
 
 HYPERKALEMIA_DRUGS = frozenset(

@@ -56,3 +56,22 @@ def test_egfr_not_valid_in_children_and_states_steady_state():
     assert f.status is Status.not_valid and "adults" in f.reasons[0]
     adult = kidney.egfr(DrawInputs(serum={"creatinine": 80}, age=40, sex=Sex.male))
     assert any("acute kidney injury" in r for r in adult.reasons)
+
+
+def test_egfr_not_valid_when_acute_kidney_injury_is_flagged() -> None:
+    # Common practice: creatinine-based equations assume a steady state (Inker et al., NEJM 2021).
+    from workup.context import Flag
+    from workup.indices.kidney import egfr
+    from workup.inputs import DrawInputs
+    from workup.model import Sex
+
+    base = DrawInputs(serum={"creatinine": 150.0}, age=60, sex=Sex.male)
+    assert egfr(base).status.value != "not_valid"
+    flagged = DrawInputs(
+        serum={"creatinine": 150.0},
+        age=60,
+        sex=Sex.male,
+        context=frozenset({Flag.acute_kidney_injury}),
+    )
+    f = egfr(flagged)
+    assert f.status.value == "not_valid" and "steady state" in f.reasons[0]

@@ -61,8 +61,16 @@ def render_text(a: Assessment) -> str:
     lines += ["", "Indices   (+ valid, ! caution, x NOT VALID, ? needs input)"]
     for f in a.indices.values():
         mark = STATUS_MARK[f.status]
-        reading = f"  {f.interpretation}" if f.interpretation and f.value is not None else ""
-        lines.append(f"  {mark} {f.name:<34} {fmt_value(f):>16}  {STATUS_WORD[f.status]}{reading}")
+        line = f"  {mark} {f.name:<34} {fmt_value(f):>16}  {STATUS_WORD[f.status]}"
+        # A reading is stated only for a value that may be relied on (never for NOT VALID).
+        if f.usable and f.interpretation:
+            reading = f.interpretation.replace("_", " ")
+            if len(line) + 2 + len(reading) <= 80:
+                line += "  " + reading
+            else:
+                lines.append(line)
+                line = " " * 40 + reading
+        lines.append(line)
         if f.status.value != "ok" and f.reasons:
             lines.append(_wrap(f.reasons[0], "        "))
     lines += ["", "Causes of a normal-gap acidosis (all draws)"]

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from workup.analytes import analyte
+from workup.context import Flag
 from workup.findings import Finding, missing
 from workup.indices._common import Judge, finding, fmt
 from workup.inputs import DrawInputs
@@ -56,6 +57,11 @@ def egfr(x: DrawInputs) -> Finding:
     value = ckd_epi_2021(scr, x.age, x.sex)
     if x.age < 18:
         j.not_valid(f"age {x.age}: the equation was developed in adults; use a paediatric one")
+    if x.has(Flag.acute_kidney_injury):
+        j.not_valid(
+            "acute kidney injury is flagged: creatinine is not in a steady state, so the "
+            "equation does not estimate the GFR"
+        )
     j.note(f"creatinine {fmt(scr, 2)} mg/dL, age {x.age}, {x.sex.value}: {category(value)} (KDIGO)")
     j.note(
         "assumes a steady-state creatinine: not valid in acute kidney injury or while creatinine "
