@@ -571,7 +571,7 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
             )
             lead.append(
                 Evidence(
-                    "without pH and pCO2 a low bicarbonate may also be renal compensation for a "
+                    "without a usable pH and pCO2 a low bicarbonate may also be renal compensation for a "
                     "chronic respiratory alkalosis" + floor + "; enter the gas to confirm"
                 )
             )
@@ -581,7 +581,7 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
         lead = [
             Evidence(f"{pic.hco3_words} {fmt(hco3)} is above {fmt(s.bicarbonate_high)}"),
             Evidence(
-                "without pH and pCO2 a high bicarbonate may also be renal compensation for a "
+                "without a usable pH and pCO2 a high bicarbonate may also be renal compensation for a "
                 "chronic respiratory acidosis; enter the gas to confirm"
             ),
         ]

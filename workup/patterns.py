@@ -96,7 +96,8 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings) -> Ranking:
     if presumed:
         notes.append(
             "The acidosis in " + ", ".join(presumed) + " is presumed from the chemistry alone: "
-            "without a blood gas a low bicarbonate may be compensation for a respiratory alkalosis."
+            "without a usable blood gas a low bicarbonate may be compensation for a respiratory "
+            "alkalosis."
         )
     if nh4 is not None and ("outweighed" in nh4.text or "set aside" in nh4.text):
         notes.append("Ammonium: " + nh4.text + ".")
