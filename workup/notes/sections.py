@@ -573,7 +573,7 @@ def causes_section(c: Context) -> Section:
     if c.brief:
         s.sentences.extend(_causes_brief(c, calls))
     else:
-        s.sentences.extend(_causes_full(c, calls))
+        s.items.extend(_causes_full(c, calls))
     return s
 
 
@@ -602,6 +602,7 @@ def _causes_brief(c: Context, calls: list[PatternCall]) -> list[str]:
 
 
 def _causes_full(c: Context, calls: list[PatternCall]) -> list[str]:
+    """One list item per cause still in play, best first, then one for those ruled unlikely."""
     out = []
     first = True
     for p in calls:
@@ -610,13 +611,14 @@ def _causes_full(c: Context, calls: list[PatternCall]) -> list[str]:
         lead = "the leading consideration" if first else _VERDICT_WORD[p.verdict]
         text = f"{p.name} is {lead}" + (f" ({_VERDICT_WORD[p.verdict]})" if first else "")
         first = False
-        out.append(ph.sentence(text))
+        parts = [ph.sentence(text)]
         if p.support:
-            out.append(ph.sentence("In favour: " + _evidence(p.support, c)))
+            parts.append(ph.sentence("In favour: " + _evidence(p.support, c)))
         if p.against:
-            out.append(ph.sentence("Against: " + _evidence(p.against, c)))
+            parts.append(ph.sentence("Against: " + _evidence(p.against, c)))
         if p.missing:
-            out.append(ph.sentence("Not yet known: " + ", ".join(ph.tidy(m) for m in p.missing)))
+            parts.append(ph.sentence("Not yet known: " + ", ".join(ph.tidy(m) for m in p.missing)))
+        out.append(" ".join(parts))
     unlikely = [p for p in calls if p.verdict is Verdict.unlikely]
     shared = {p.against[0].text if p.against else "" for p in unlikely}
     if len(unlikely) > 1 and len(shared) == 1 and "" not in shared:
