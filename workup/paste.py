@@ -20,7 +20,7 @@ from dataclasses import dataclass, field
 from datetime import datetime
 
 from workup.analytes import Analyte, Panel, UnitSystem, analyte
-from workup.labtext.cells import NO_RESULT_WORDS, Reading, is_unit, read_cells
+from workup.labtext.cells import NO_RESULT_WORDS, QUALITY_WORDS, Reading, is_unit, read_cells
 from workup.labtext.dates import find_clock, find_time
 from workup.labtext.vocabulary import Heading, Identity, NameMatch, match_heading, match_name
 from workup.model import PANEL_MODELS, Draw, GasSample
@@ -370,6 +370,10 @@ def _read_line(
     if refusal:
         unrecognised.append(Unrecognised(src, refusal))
         return
+    # A sample-quality remark (hemolyzed, lipemic...) beside a value is asked about.
+    remarks = [w.lower() for w in cells.words if w.lower() in QUALITY_WORDS]
+    if remarks and not confirm:
+        confirm = "quality:" + remarks[0]
     options: list[Entry] = []
     problems: list[str] = []
     units_asked = False
@@ -553,6 +557,8 @@ def _question_text(line, ident, targets, units_asked, confirm, several, src) -> 
         asks.append(f"no sample type is given: {words}?")
     if confirm == "gas":
         asks.append("this is from a blood gas report (whole blood): enter it as the serum value?")
+    if confirm.startswith("quality:"):
+        asks.append(f"the line says “{confirm.split(':', 1)[1]}”: use the value?")
     if confirm == "urine":
         asks.append("workup knows this only in urine, but the line does not say urine: is it?")
     if units_asked:
@@ -600,8 +606,8 @@ def _read_other(line: str, src: SourceLine, ctx: _Context, unrecognised: list[Un
             if f is not None and f.when is not None:
                 ctx.times.append((f.when, f.text, src))
         return
-    if _COLUMN_WORDS.search(line) and not re.search(r"\d", line):
-        return  # column titles of a copied table
+    if len(_COLUMN_WORDS.findall(line)) >= 2 and not re.search(r"\d", line):
+        return  # column titles of a copied table ("Test  Result  Units  Range")
     if found is not None:
         unrecognised.append(
             Unrecognised(

@@ -420,3 +420,11 @@ def test_an_unusual_value_carries_a_caution() -> None:
     p = propose("Chemistry\nPotassium 7.5 mmol/L HH")
     ((entry, note),) = p.cautions()
     assert entry.key == "potassium" and "unusually high" in note
+
+
+def test_a_sample_quality_remark_makes_the_value_a_question() -> None:
+    # Hemolysis raises the measured potassium (common practice): the value is not taken as read.
+    p = propose("Chemistry\nPotassium (hemolyzed) 5.9 mmol/L")
+    assert p.entries == ()
+    (q,) = p.questions
+    assert q.kind == "confirm" and "hemolyzed" in q.text

@@ -54,6 +54,23 @@ FLAGS = frozenset(
     }
 )
 _UNIT_WORDS = frozenset({"mmhg", "kpa", "torr", "%", "mm", "grade"})
+QUALITY_WORDS = frozenset(
+    {
+        "hemolyzed",
+        "haemolysed",
+        "hemolysed",
+        "haemolyzed",
+        "hemolysis",
+        "haemolysis",
+        "lipemic",
+        "lipaemic",
+        "icteric",
+        "clotted",
+        "diluted",
+        "contaminated",
+    }
+)
+"""Sample-quality remarks: a value beside one of these is asked about, not taken as read."""
 NO_RESULT_WORDS = frozenset(
     {
         "pending",
