@@ -203,7 +203,8 @@ def current_holder(case_path: str | Path) -> LockInfo | None:
     """
     path = lock_path(case_path)
     try:
-        fd = os.open(path, os.O_RDWR | os.O_CLOEXEC)
+        # Read-only is enough for flock, and works on a lock file another user owns.
+        fd = os.open(path, os.O_RDONLY | os.O_CLOEXEC)
     except FileNotFoundError:
         return None
     try:

@@ -199,6 +199,8 @@ class CaseSession:
         s._saved = disk_case if same else None  # type: ignore[assignment]
         s._journaled = None
         try:
+            if draft.path != draft_path(path):
+                s._find_draft()  # other left-over edits of this case: keep them out of the way
             s.journal(draft.case)
             if draft.path != draft_path(path):
                 discard_draft(draft)  # its edits now live in this session's own draft

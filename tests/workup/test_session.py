@@ -278,3 +278,20 @@ def test_open_sweeps_old_temp_files_of_this_case_only(case_file):
         os.utime(p, (0, 0))
     with CaseSession.open(case_file):
         assert not old.exists() and other.exists()
+
+
+def test_restoring_one_draft_never_overwrites_another_of_the_same_case(case_file):
+    s = CaseSession.open(case_file)
+    s.journal(_with_notes(s, "first crash"))
+    _crash(s)
+    s2 = CaseSession.open(case_file)  # sets "first crash" aside
+    s2.journal(_with_notes(s2, "second crash"))
+    _crash(s2)
+
+    offered = {d.case.notes: d for d in pending_drafts()}
+    assert set(offered) == {"first crash", "second crash"}
+    r = CaseSession.restore(offered["first crash"])
+    assert r.case.notes == "first crash"
+    assert sorted(d.case.notes for d in list_drafts()) == ["first crash", "second crash"]
+    r.close()
+    assert [d.case.notes for d in pending_drafts()] == ["second crash"]
