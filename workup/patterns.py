@@ -36,6 +36,12 @@ def _no_acidosis_note(draws: list[DrawResult]) -> str:
     parts = []
     for r in draws:
         primary = next((d for d in r.disorders if d.primary), None)
+        during = getattr(r.inputs, "during", None)
+        if during is not None:
+            parts.append(
+                f"{r.label}: taken during {during.value.replace('_', ' ')}, not a steady state"
+            )
+            continue
         if primary is None:
             parts.append(f"{r.label}: no acid-base disorder found")
             continue

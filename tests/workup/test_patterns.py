@@ -329,3 +329,13 @@ def test_caution_finding_gives_half_the_weight_through_gather() -> None:
         return next(e.weight for e in distal.support if e.index == "urine_ph")
 
     assert distal_weight(Status.caution) == pytest.approx(distal_weight(Status.ok) / 2)
+
+
+def test_acidosis_seen_only_during_a_loading_test_is_not_ranked() -> None:
+    draw = _loading(fehco3_high=True)
+    draw["serum"] = {**draw["serum"], "bicarbonate": 18, "chloride": 112}  # gap 10, still acidotic
+    draw["blood_gas"] = {"ph": 7.33, "pco2": 35, "bicarbonate": 18}
+    a = assess(_case([draw]))
+    assert [d.id for d in a.draws[0].disorders] == ["normal_gap_metabolic_acidosis"]
+    assert all(c.verdict is Verdict.unlikely for c in a.patterns)
+    assert any("not a steady state" in n for n in a.ranking_notes)
