@@ -132,14 +132,16 @@ def read_draft(path: str | Path) -> Draft:
         base = Fingerprint.from_json(record.get("base"))
         written = datetime.fromisoformat(str(record["written"]))
         owner = str(record.get("owner", "?"))
-    except (OSError, ValueError, KeyError, TypeError) as exc:
+    except (OSError, ValueError, KeyError, TypeError, RecursionError) as exc:
         return Draft(path, None, None, None, None, "?", f"unreadable draft: {exc}")
     data = record.get("case")
-    if _checksum(data) != record.get("checksum"):
-        return Draft(path, case_path, None, base, written, owner, "the draft's checksum is wrong")
     try:
+        if _checksum(data) != record.get("checksum"):
+            return Draft(
+                path, case_path, None, base, written, owner, "the draft's checksum is wrong"
+            )
         case = case_from_data_migrated(data, str(path))
-    except CaseFileError as exc:
+    except (CaseFileError, ValueError, TypeError, RecursionError) as exc:
         return Draft(path, case_path, None, base, written, owner, f"the draft's case: {exc}")
     return Draft(path, case_path, case, base, written, owner)
 

@@ -8,6 +8,8 @@ import stat
 from pathlib import Path
 
 import pytest
+from hypothesis import given, settings
+from hypothesis import strategies as st
 
 from workup.caseio import load_case, save_case
 from workup.journal import (
@@ -124,3 +126,41 @@ def test_discard_removes_the_draft(case_file):
     discard_draft(d)
     assert pending_drafts() == [] and draft_for(case_file) is None
     discard_draft(d)  # already gone: harmless
+
+
+JSON = st.recursive(
+    st.none() | st.booleans() | st.integers() | st.floats() | st.text(max_size=20),
+    lambda inner: (
+        st.lists(inner, max_size=4) | st.dictionaries(st.text(max_size=10), inner, max_size=4)
+    ),
+    max_leaves=30,
+)
+
+
+@settings(max_examples=200, deadline=None)
+@given(st.binary(max_size=2000))
+def test_any_bytes_in_a_draft_file_are_reported_not_raised(raw):
+    path = drafts_folder() / "fuzz.draft.json"
+    path.write_bytes(raw)
+    d = read_draft(path)
+    assert d.case is None and d.problem
+
+
+@settings(max_examples=200, deadline=None)
+@given(JSON, st.booleans())
+def test_any_case_data_in_a_well_formed_draft_is_reported_not_raised(data, right_checksum):
+    from workup.journal import _checksum
+
+    record = {
+        "format": 1,
+        "case_path": "/nowhere/case.yaml",
+        "base": None,
+        "written": "2026-12-01T10:00:00+00:00",
+        "owner": "x",
+        "checksum": _checksum(data) if right_checksum else "0",
+        "case": data,
+    }
+    path = drafts_folder() / "fuzz.draft.json"
+    path.write_text(json.dumps(record))
+    d = read_draft(path)
+    assert (d.case is None) == (d.problem is not None)
