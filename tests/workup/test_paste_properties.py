@@ -6,7 +6,8 @@ from hypothesis import given, settings
 from hypothesis import strategies as st
 
 from workup.analytes import UnitSystem, analyte
-from workup.paste import propose
+from workup.model import Draw
+from workup.paste import apply_proposal, propose
 
 # Pieces of report text, so that generated lines look like reports often enough to reach the
 # deeper paths (names, units, ranges, flags, dates, headings) and not only the "no name" path.
@@ -104,5 +105,6 @@ def test_propose_never_raises_on_any_text(text: str, system) -> None:
 def test_propose_never_raises_on_report_like_text(text: str, system) -> None:
     p = propose(text, system)
     _check(p)
-    # Answering every question with its first option never raises either.
-    p.resolve({q.id: 0 for q in p.questions})
+    # Answering every question with its first option, or leaving all out, gives a valid draw.
+    apply_proposal(Draw(label="x"), p, {q.id: 0 for q in p.questions})
+    apply_proposal(Draw(label="x"), p, {q.id: None for q in p.questions})

@@ -110,6 +110,7 @@ class Cells:
     """What the value part of a line holds."""
 
     readings: tuple[Reading, ...]
+    """The values, in the order written."""
     flags: tuple[str, ...]
     """Abnormal flags as written (H, L, *, critical); shown, never used."""
     words: tuple[str, ...]

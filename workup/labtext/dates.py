@@ -41,7 +41,9 @@ class FoundTime:
     text: str
     """The characters as written."""
     start: int
+    """Offset of the first character in the searched text."""
     end: int
+    """Offset just after the last character."""
     when: datetime | None
     """The moment, or None when it cannot be fixed (see ``problem``)."""
     problem: str = ""

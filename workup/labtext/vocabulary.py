@@ -264,7 +264,9 @@ class NameMatch:
     """A recognised name at the start of a line."""
 
     identity: Identity
+    """What the name measures."""
     spelling: str
+    """The spelling matched, lower case ("una" is not one: "na" with a "u" marker)."""
     marker: str | None
     """"urine", "serum", "gas" or "whole_blood" when the name itself says the sample."""
     gas_sample: str | None
