@@ -24,7 +24,7 @@ import pytest
 from tests.workup.helpers.journal_loop import edit_number, edited
 from workup.caseio import load_case
 from workup.journal import discard_draft, draft_for, drafts_folder, list_drafts, pending_drafts
-from workup.storage import backup_folder, temp_files
+from workup.storage import backup_folder, list_backups, temp_files
 
 HELPER = Path(__file__).parent / "helpers" / "journal_loop.py"
 SAVE_EVERY = 3
@@ -105,6 +105,7 @@ def test_killed_sessions_lose_nothing(zygote, tmp_path, cases_dir):
     rng.shuffle(kills)
     stats = {"kills": 0, "sigkill": 0, "sighup": 0, "journaled": 0, "saved": 0}
     stats |= {"interrupted_writes": 0, "stale_locks_taken_over": 0, "drafts_offered": 0}
+    stats["backups_checked"] = 0
     previous_pid = None
     for round_no, sig in enumerate(kills):
         offset = (round_no + 1) * 10_000
@@ -132,6 +133,13 @@ def test_killed_sessions_lose_nothing(zygote, tmp_path, cases_dir):
             assert k % SAVE_EVERY == 0
         if saved:
             assert k is not None and k >= saved[-1]
+
+        # Every backup is a complete earlier version as well.
+        for b in list_backups(case_path):
+            kept = load_case(b.path)
+            n = edit_number(kept)
+            assert kept == (base if n is None else edited(base, n))
+            stats["backups_checked"] += 1
 
         # The draft is one complete version too, and no acknowledged edit is lost.
         draft = draft_for(case_path)
