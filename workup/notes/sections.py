@@ -101,6 +101,12 @@ def values_section(c: Context) -> Section:
     s.sentences.append(
         f'Indices are from the "{draw.label}" draw; the causes are judged on every draw.'
     )
+    if draw.during is not None:
+        # A loading draw answers the loading question; the steady-state readings live elsewhere.
+        s.sentences.append(
+            "That draw was taken during a loading test, so its urine acid and ammonium readings "
+            "are not steady-state ones; those of the other draws appear under the causes."
+        )
     for d in c.case.draws:
         s.items.append(f'"{d.label}" ({when(d)}): {values_line(d, False)}.')
     return s
