@@ -14,7 +14,9 @@ from workup.note import FORMATS, STYLES, draft_note
 def add_arguments(p: argparse.ArgumentParser) -> None:
     """Arguments of ``workup note``."""
     p.add_argument("file", type=Path, help="case file (YAML)")
-    p.add_argument("--draw", help="label of the draw to assess (default: the latest)")
+    p.add_argument(
+        "--draw", metavar="LABEL", help="label of the draw to assess (default: the latest)"
+    )
     p.add_argument(
         "--style",
         choices=STYLES,
