@@ -15,6 +15,7 @@ from __future__ import annotations
 
 import io
 import re
+from datetime import datetime
 from typing import Any
 
 from ruamel.yaml import YAML
@@ -169,8 +170,20 @@ def _same_scalar(old: Any, new: Any, path: tuple[Any, ...], system: UnitSystem |
     both_numbers = isinstance(old, int | float) and isinstance(new, int | float)
     if (both_text or both_numbers) and old == new:
         return True
+    if len(path) == 3 and path[0] == "draws" and path[2] == "taken":
+        return _same_time(old, new)
     measured = _measured(path)
     return measured is not None and _same_measurement(measured, old, new, system)
+
+
+def _same_time(old: Any, new: Any) -> bool:
+    # "2026-11-20 09:10" and "2026-11-20T09:10" are the same moment; keep how it was written.
+    try:
+        a = old if isinstance(old, datetime) else datetime.fromisoformat(str(old))
+        b = new if isinstance(new, datetime) else datetime.fromisoformat(str(new))
+    except ValueError:
+        return False
+    return (a.tzinfo is None) == (b.tzinfo is None) and a == b
 
 
 def _measured(path: tuple[Any, ...]) -> tuple[Panel, str] | None:

@@ -172,3 +172,12 @@ def test_a_fresh_dump_reads_back_and_a_second_merge_changes_nothing():
     once = roundtrip_text(text, case)
     assert same_case(case_from_text(once), case)
     assert roundtrip_text(once, case) == once
+
+
+def test_a_time_written_another_way_is_kept():
+    text = COMMENTED.replace("taken: 2026-11-20T09:10", "taken: 2026-11-20 09:10")
+    case = case_from_text(text)
+    case.notes = "changed"
+    out = roundtrip_text(text, case)
+    assert "taken: 2026-11-20 09:10" in out
+    assert same_case(case_from_text(out), case)
