@@ -17,8 +17,6 @@ from workup.storage import BACKUP_DIR_NAME, DIR_MODE, FILE_MODE, make_private_di
 
 OPEN_BITS = 0o077
 """Any permission for the group or for others; a private file or folder has none."""
-CASE_SUFFIXES = (".yaml", ".yml")
-"""File name endings of case files."""
 
 
 @dataclass(frozen=True, slots=True)
@@ -52,7 +50,7 @@ def _who(mode: int) -> str:
 
 
 def check_folder(folder: str | Path) -> list[PrivacyWarning]:
-    """Warnings for ``folder`` and the case, backup, draft and lock files in it.
+    """Warnings for ``folder``, its backup folder and every file in them that others can reach.
 
     Returns an empty list when everything is private (or the folder does not exist).
     """
@@ -94,12 +92,9 @@ def check_folder(folder: str | Path) -> list[PrivacyWarning]:
 
 
 def _private_files(folder: Path) -> list[Path]:
-    out = []
-    for p in sorted(folder.iterdir()):
-        if p.is_symlink() or not p.is_file():
-            continue
-        if p.suffix in CASE_SUFFIXES or p.name.endswith((".lock", ".tmp", ".json")):
-            out.append(p)
+    # Every file counts, not only cases: drafted notes (NAME.note.txt), exports and backups
+    # hold the same patient data.
+    out = [p for p in sorted(folder.iterdir()) if p.is_file() and not p.is_symlink()]
     backups = folder / BACKUP_DIR_NAME
     if backups.is_dir():
         out += sorted(p for p in backups.iterdir() if p.is_file() and not p.is_symlink())

@@ -61,12 +61,14 @@ def test_an_open_folder_gets_the_exact_command_that_fixes_it(tmp_path):
     os.chmod(lib / "a.yaml", 0o644)
     (lib / "b.yaml").write_text("label: b\n")
     os.chmod(lib / "b.yaml", 0o600)
-    (lib / "readme.txt").write_text("not a case")
-    os.chmod(lib / "readme.txt", 0o644)
+    (lib / "a.note.txt").write_text("a drafted note: patient data too")
+    os.chmod(lib / "a.note.txt", 0o644)
+    (lib / "sub").mkdir(mode=0o755)  # only the library folder itself is checked
 
     warnings = check_folder(lib)
     commands = [w.command for w in warnings]
-    assert commands == [f"chmod 700 '{lib}'", f"chmod 600 '{lib / 'a.yaml'}'"]
+    files = f"'{lib / 'a.note.txt'}' '{lib / 'a.yaml'}'"
+    assert commands == [f"chmod 700 '{lib}'", f"chmod 600 {files}"]
     assert "every user" in warnings[0].message
     assert "a.yaml" in warnings[1].format()
 
