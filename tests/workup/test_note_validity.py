@@ -322,3 +322,19 @@ def test_long_evidence_is_shortened_only_after_it_was_written_in_full(diarrhea) 
     )
     assert lead not in brief  # the daily note keeps only the gist
     assert "reads ammonium excretion as adequate: the kidney responds" in brief
+
+
+def test_without_a_gas_compensation_is_not_judged_and_no_band_is_given() -> None:
+    # Invented values: a low bicarbonate with no gas, so any acidosis is presumed.
+    raw = (
+        b"schema: 1\nlabel: Test - no gas, low HCO3\nunits: conventional\ndraws:\n"
+        b"  - label: one\n"
+        b"    serum: {sodium: 138, potassium: 3.0, chloride: 114, bicarbonate: 15,"
+        b" albumin: 4.0 g/dL}\n"
+    )
+    case = case_from_bytes(raw)
+    a = assess(case)
+    for style in STYLES:
+        note = _flat(draft_note(a, case, style))
+        assert "compensation is not judged" in note
+        assert "expected pCO2" not in note

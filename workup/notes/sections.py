@@ -262,6 +262,9 @@ def _acid_base_brief(c: Context, primary: list[Disorder], added: list[Disorder])
     parts = []
     for d in primary:
         text = _disorder_name(d)
+        if not _gas_entered(c):
+            parts.append(text + "; no gas entered, so compensation is not judged")
+            continue
         ids = COMPENSATION_INDEX.get(d.id, {})
         bands = [
             x for x in (_expected_clause(c, i) for i in ids.get(d.detail, ids.get(None, ()))) if x
@@ -280,6 +283,11 @@ def _acid_base_brief(c: Context, primary: list[Disorder], added: list[Disorder])
 
 
 def _compensation(c: Context, d: Disorder) -> list[str]:
+    if not _gas_entered(c):
+        return [
+            "No blood gas was entered, so compensation is not judged; a gas drawn with the "
+            "chemistry is suggested."
+        ]
     ids = COMPENSATION_INDEX.get(d.id, {})
     chosen = ids.get(d.detail, ids.get(None, ()))
     clauses = [x for x in (_expected_clause(c, i) for i in chosen) if x]
@@ -651,9 +659,8 @@ def next_tests_section(c: Context) -> Section:
     tests = c.a.next_tests[:3] if c.brief else c.a.next_tests
     if c.brief:
         if tests:
-            texts = [ph.tidy(t.text) for t in tests]
-            texts = texts[:1] + [_lower(t) for t in texts[1:]]
-            s.sentences.append(ph.sentence("; ".join(texts)))
+            # Each test keeps its own capital: some start with a name (Fanconi, Anti-Ro).
+            s.sentences.append(ph.sentence("; ".join(ph.tidy(t.text) for t in tests)))
         return s
     for t in tests:
         s.items.append(f"{ph.tidy(t.text)}: {ph.tidy(t.why)}." if t.why else ph.sentence(t.text))
