@@ -659,8 +659,9 @@ def next_tests_section(c: Context) -> Section:
     tests = c.a.next_tests[:3] if c.brief else c.a.next_tests
     if c.brief:
         if tests:
-            # Each test keeps its own capital: some start with a name (Fanconi, Anti-Ro).
-            s.sentences.append(ph.sentence("; ".join(ph.tidy(t.text) for t in tests)))
+            # One sentence per test: a test's own text may hold a semicolon, and some start
+            # with a name (Fanconi, Anti-Ro) that must keep its capital.
+            s.sentences.extend(ph.sentence(ph.tidy(t.text)) for t in tests)
         return s
     for t in tests:
         s.items.append(f"{ph.tidy(t.text)}: {ph.tidy(t.why)}." if t.why else ph.sentence(t.text))
