@@ -56,6 +56,7 @@ class LockInfo:
 
 
 def current_user() -> str:
+    """The login name of this process's user (the uid when it has no name)."""
     try:
         return getpass.getuser()
     except (KeyError, OSError):  # no passwd entry (containers)

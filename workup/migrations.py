@@ -32,6 +32,7 @@ def register(from_version: int, registry: dict[int, Migration] | None = None):
     target = MIGRATIONS if registry is None else registry
 
     def deco(fn: Migration) -> Migration:
+        """Register ``fn`` and return it unchanged."""
         if from_version in target:
             raise ValueError(f"a migration from schema {from_version} is already registered")
         target[from_version] = fn
