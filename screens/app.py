@@ -71,10 +71,12 @@ class WorkupApp(App[None]):
             event.widget.cursor_blink = False  # type: ignore[attr-defined]
 
     def on_resize(self, event: events.Resize) -> None:
-        self._check_size()
+        self._check_size(event.size.width, event.size.height)
 
-    def _check_size(self) -> None:
-        small = self.size.width < MIN_WIDTH or self.size.height < MIN_HEIGHT
+    def _check_size(self, width: int | None = None, height: int | None = None) -> None:
+        width = self.size.width if width is None else width
+        height = self.size.height if height is None else height
+        small = width < MIN_WIDTH or height < MIN_HEIGHT
         showing = isinstance(self.screen, TooSmallScreen)
         if small and not showing:
             self.push_screen(TooSmallScreen())

@@ -95,8 +95,9 @@ class CaseScreen(Screen[None]):
         Binding("f8", "paste", "Paste labs", id="paste", show=False),
         Binding("f9", "trends", "Trends", id="trends", show=False),
         Binding("ctrl+o", "close", "Library", id="close"),
-        Binding("ctrl+pageup", "previous_draw", "Previous draw", show=False),
-        Binding("ctrl+pagedown", "next_draw", "Next draw", show=False),
+        # Priority: scrolling containers would otherwise take these as "page left/right".
+        Binding("ctrl+pageup", "previous_draw", "Previous draw", show=False, priority=True),
+        Binding("ctrl+pagedown", "next_draw", "Next draw", show=False, priority=True),
         *(Binding(k, f"tab('{tid}')", name, show=False) for k, tid, name in TABS),
     ]
 
@@ -607,8 +608,8 @@ class CaseScreen(Screen[None]):
         field.show_unit(new)
         if m is not None:
             value = convert(field.analyte, m.canonical, new)
-            digits = max(field.analyte.decimals, 1) + 1
-            text = f"{round(value, digits):g}"
+            # Four significant figures keep the quantity (to 0.05%) without false precision.
+            text = f"{value:.0f}" if abs(value) >= 1000 else f"{value:.4g}"
             with self._quiet():
                 field.input.value = text
             self._apply_field(field, text)

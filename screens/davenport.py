@@ -73,29 +73,29 @@ def legend_text(
 ) -> Text:
     """The legend: what the marks mean, where the point is and how far it can be trusted."""
     out = Text()
-    out.append("pH across, HCO3 (mmol/L) up\n", style="bold")
+    out.append("pH across, HCO3 mmol/L up\n", style="bold")
     if point is None:
         out.append(f"{diagram.MARK} this draw: not placed\n  ({source})\n")
     else:
-        out.append(f"{diagram.MARK} {point.label or 'this draw'}: ", style="bold")
-        out.append(f"pH {point.ph:.2f}, HCO3 {point.hco3:.1f}\n")
+        out.append(f"{diagram.MARK} {point.label or 'this draw'}\n", style="bold")
+        out.append(f"  pH {point.ph:.2f}, HCO3 {point.hco3:.1f}\n")
         out.append(f"  HCO3: {source}\n")
-        out.append(f"  isobar through it: pCO2 {point.pco2:.0f} mmHg\n")
+        out.append(f"  on the pCO2 {point.pco2:.0f} isobar\n")
         word = STATUS_WORD[check.status] if check is not None else "not checked"
-        out.append(f"  gas consistency (HH): {word}\n")
+        out.append(f"  gas check (HH): {word}\n")
         if not point.on_plane:
             out.append("  outside the plotted range\n", style="bold")
         inside = diagram.bands_containing(point)
         names = ", ".join(b.digit for b in inside) or "none"
-        out.append(f"  lies in band: {names}\n")
+        out.append(f"  inside band(s): {names}\n")
     if others:
         out.append(f"{diagram.OTHER_MARK} other draws ({others})\n")
-    out.append("⠉ pCO2 isobars, mmHg at the end\n")
-    out.append(f"{diagram.FILL} expected-compensation bands:\n")
+    out.append("⠉ pCO2 isobars (mmHg at end)\n")
+    out.append(f"{diagram.FILL} expected compensation:\n")
     for b in diagram.bands():
         out.append(f" {b.digit}", style=Style(color=BAND_COLOURS[b.id], bold=True))
         out.append(f" {b.name}\n")
-    out.append("F1 help: the rules and sources", style="dim")
+    out.append("Bands are geometry; F4 reads\nthe disorders. F1: rules.", style="dim")
     return out
 
 

@@ -70,7 +70,7 @@ def finding_detail(f: Finding, show_source: bool) -> Text:
 class IndexTable(DataTable):
     """The indices, one row each; s toggles formula and source of the selected one."""
 
-    BINDINGS = [Binding("s", "toggle_source", "Formula/source")]
+    BINDINGS = [Binding("s", "toggle_source", "Formula/source", show=False)]
 
     def action_toggle_source(self) -> None:
         """Show or hide the formula and source of the selected index."""

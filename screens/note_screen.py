@@ -54,14 +54,12 @@ class NoteScreen(Screen[None]):
         self.write = write
 
     def compose(self) -> ComposeResult:
-        yield Static(
-            f"Note: {self.case.label}  (edit freely; the case file is not changed)", id="titlebar"
-        )
+        yield Static(f"Note: {self.case.label} (edits stay here, not in the case)", id="titlebar")
         try:
             text = draft(self.assessment, self.case)
         except Exception as exc:  # a half-built drafter must not take the app down
             text = f"The note could not be drafted: {exc}"
-        yield TextArea(text, id="note-text", soft_wrap=True, show_line_numbers=False)
+        yield TextArea(text, id="note-text", soft_wrap=False, show_line_numbers=False)
         yield Footer()
 
     def on_mount(self) -> None:

@@ -1,0 +1,350 @@
+"""Pilot flows through the app at 80 × 24: enter, refuse, save, reopen, switch draws, copy notes.
+
+Keys are pressed where key handling is the point; elsewhere values are set and the app is paused.
+Demo cases are invented scenarios (see cases/).
+"""
+
+from __future__ import annotations
+
+import shutil
+from datetime import datetime
+from pathlib import Path
+
+import pytest
+from textual import events
+from textual.widgets import Input, Select
+
+from screens.app import build_app
+from screens.case_screen import CaseScreen
+from screens.dialogs import ChoiceScreen, TooSmallScreen
+from screens.entry import ValueField
+from screens.findings_view import IndexTable
+from screens.help_screen import HelpScreen
+from screens.note_screen import TMUX_HINT, NoteScreen
+from workup.assess import assess
+from workup.caseio import load_case
+from workup.findings import STATUS_WORD
+from workup.formatting import fmt_value
+from workup.model import LoadingTest
+
+CLOCK = datetime(2026, 12, 1, 8, 0)
+SIZE = (80, 24)
+
+
+def _app(cases: Path, file: Path | None = None):
+    return build_app(cases, file, clock=lambda: CLOCK)
+
+
+@pytest.fixture
+def demo(tmp_path: Path, cases_dir: Path) -> Path:
+    """A private copy of the two-draw distal RTA demo case (invented)."""
+    target = tmp_path / "cases" / "distal.yaml"
+    target.parent.mkdir()
+    shutil.copy(cases_dir / "distal-rta-classic.yaml", target)
+    return target
+
+
+def _field(screen: CaseScreen, fid: str) -> ValueField:
+    return screen.query_one(f"#row-{fid}", ValueField)
+
+
+def _table_rows(screen: CaseScreen) -> list[list[str]]:
+    table = screen.query_one(IndexTable)
+    return [[str(c) for c in table.get_row_at(i)] for i in range(table.row_count)]
+
+
+async def test_enter_a_case_by_keys_and_see_its_findings(tmp_path: Path) -> None:
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.press("n")  # library: new case
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        assert app.focused is not None and app.focused.id == "in-serum-sodium"
+        # Demo B baseline (invented): Na 139, K 2.9, Cl 116, HCO3 15; Enter moves on.
+        await pilot.press(*"139", "enter", *"2.9", "enter", *"116", "enter", *"15", "enter")
+        assert app.focused.id == "in-serum-urea-nitrogen"
+        await pilot.pause()
+        a = screen.assessment
+        assert a is not None
+        gap = a.indices["anion_gap"]
+        assert gap.value == pytest.approx(8.0)  # 139 − (116 + 15)
+        await pilot.press("f4")
+        await pilot.pause()
+        rows = {r[1]: r for r in _table_rows(screen)}
+        row = rows[gap.name]
+        assert row[2] == fmt_value(gap)
+        assert STATUS_WORD[gap.status] in row[3]
+        assert "UNSAVED" in str(screen.query_one("#titlebar").render())
+
+
+async def test_impossible_value_is_refused_inline_and_nothing_crashes(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        await pilot.press("f2")
+        sodium = _field(screen, "serum-sodium")
+        sodium.input.focus()
+        sodium.input.value = ""
+        await pilot.press(*"1380")
+        await pilot.pause()
+        assert sodium.has_class("-refused")
+        assert "x refused" in str(sodium.query_one(".field-state").render())
+        assert "not a possible sodium" in str(screen.query_one("#field-help").render())
+        assert screen.draw.serum.sodium is None
+        assert screen.assessment is not None
+        assert screen.assessment.indices["anion_gap"].value is None
+        # Awkward keys on several fields: nothing may raise.
+        for fid, text in [("blood-gas-ph", "abc"), ("blood-gas-pco2", "1e999"), ("urine-ph", "-5"),
+                          ("serum-potassium", "nan"), ("urine-ketones", "lots")]:  # fmt: skip
+            f = _field(screen, fid)
+            f.input.focus()
+            f.input.value = text
+            await pilot.press("ctrl+t", "backspace", "enter", "shift+tab", "ctrl+pagedown")
+        await pilot.pause()
+        assert app.is_running
+
+
+async def test_unusual_value_is_accepted_with_a_caution(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        k = _field(screen, "serum-potassium")
+        k.input.value = "7.5"
+        await pilot.pause()
+        assert k.has_class("-unusual")
+        assert screen.draw.serum.potassium is not None
+        assert screen.draw.serum.potassium.canonical == 7.5
+        assert any("unusually high" in c for c in screen.assessment.cautions)
+
+
+async def test_pasting_a_block_into_one_field_leaves_the_others_alone(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        before = {k: v for k, v in screen.draw.serum.measurements().items() if k != "potassium"}
+        k = _field(screen, "serum-potassium")
+        k.input.focus()
+        k.input.value = ""
+        k.input.post_message(events.Paste("4.1\nsodium 150\nchloride 99\n"))
+        await pilot.pause()
+        assert k.input.value == "4.1"
+        assert screen.draw.serum.potassium.canonical == 4.1
+        after = {k: v for k, v in screen.draw.serum.measurements().items() if k != "potassium"}
+        assert after == before
+
+
+async def test_unit_switch_converts_and_an_ambiguous_bare_number_is_refused(
+    tmp_path: Path,
+) -> None:
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        screen = app.screen
+        creat = _field(screen, "serum-creatinine")
+        creat.input.focus()
+        creat.input.value = "0.8"
+        await pilot.pause()
+        assert creat.unit is None and creat.has_class("-refused")  # never guessed
+        assert screen.draw.serum.creatinine is None
+        await pilot.press("ctrl+t")  # umol/L: 0.8 umol/L is not a possible creatinine
+        await pilot.pause()
+        assert creat.unit == "umol/L" and screen.draw.serum.creatinine is None
+        await pilot.press("ctrl+t")  # mg/dL: accepted
+        await pilot.pause()
+        m = screen.draw.serum.creatinine
+        assert m is not None and m.unit == "mg/dL"
+        # 0.8 mg/dL x 88.4 = 70.7 umol/L (unit table of the clinical-methods sheet, section 12).
+        assert m.canonical == pytest.approx(70.7, abs=0.05)
+        await pilot.press("ctrl+t")  # mmol/L: the value already read is converted, not re-read
+        await pilot.pause()
+        m2 = screen.draw.serum.creatinine
+        assert m2 is not None and m2.unit == "mmol/L"
+        assert creat.input.value == "0.07072"
+        assert m2.canonical == pytest.approx(m.canonical, rel=5e-4)
+
+
+async def test_save_writes_the_case_and_reopening_shows_the_same_findings(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        _field(screen, "serum-sodium").input.value = "140"
+        await pilot.pause()
+        assert screen.dirty
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        assert not screen.dirty
+        first_rows = _table_rows(screen)
+    saved = load_case(demo)
+    assert saved.draws[-1].serum.sodium.canonical == 140
+    assert saved.draws[0].serum.sodium.canonical == 139  # the other draw untouched
+    assert saved.draws[-1].during is LoadingTest.bicarbonate_loading
+    app2 = _app(demo.parent, demo)
+    async with app2.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen2 = app2.screen
+        assert isinstance(screen2, CaseScreen) and not screen2.dirty
+        assert _table_rows(screen2) == first_rows
+        assert screen2.assessment.to_json() == assess(saved).to_json()
+
+
+async def test_new_case_is_saved_into_the_library_folder(tmp_path: Path) -> None:
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        screen = app.screen
+        screen.query_one("#case-label", Input).value = "Bed 7 acidosis"
+        _field(screen, "serum-sodium").input.value = "137"
+        await pilot.pause()
+        assert screen.save_now()
+        assert screen.path == tmp_path / "bed-7-acidosis.yaml"
+    case = load_case(tmp_path / "bed-7-acidosis.yaml")
+    assert case.label == "Bed 7 acidosis"
+    assert case.draws[0].taken == CLOCK
+    assert case.draws[0].serum.sodium.canonical == 137
+
+
+async def test_switch_draws_and_add_a_loading_test_draw(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        assert screen.index == 1 and screen.assessment.draw_label == "bicarbonate 3 h"
+        await pilot.press("ctrl+pageup")
+        await pilot.pause()
+        assert screen.index == 0
+        assert _field(screen, "serum-sodium").input.value == "139"
+        assert screen.assessment.draw_label == "baseline"
+        assert screen.query_one("#meta-during", Select).value == "none"
+        await pilot.press("ctrl+n")
+        await pilot.pause()
+        assert len(screen.case.draws) == 3 and screen.index == 2
+        assert screen.draw.taken == CLOCK and screen.draw.label == "draw 3"
+        assert _field(screen, "serum-sodium").input.value == ""
+        screen.query_one("#meta-during", Select).value = "ammonium_chloride"
+        screen.query_one("#meta-label", Input).value = "NH4Cl 4 h"
+        await pilot.pause()
+        assert screen.draw.during is LoadingTest.ammonium_chloride
+        assert screen.draw.label == "NH4Cl 4 h"
+        screen.query_one("#meta-label", Input).value = "baseline"  # taken by draw 1
+        await pilot.pause()
+        assert screen.draw.label == "NH4Cl 4 h"
+        assert "another draw" in str(screen.query_one("#st-label").render())
+        # Draw 1's values survived the round trip through the form.
+        assert screen.case.draws[0].serum.chloride.canonical == 116
+
+
+async def test_note_is_copied_with_osc52_and_written_beside_the_case(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        await pilot.press("f7")
+        await pilot.pause()
+        note = app.screen
+        assert isinstance(note, NoteScreen)
+        assert "Demo B" in note.text
+        await pilot.press("f2")
+        await pilot.pause()
+        assert app.clipboard == note.text
+        assert any(TMUX_HINT in n.message for n in app._notifications)
+        assert "set -s set-clipboard on" in TMUX_HINT
+        await pilot.press("f3")
+        await pilot.pause()
+        written = demo.parent / "distal.note.txt"
+        assert written.read_text().rstrip("\n") == note.text.rstrip("\n")
+        await pilot.press("escape")
+        await pilot.pause()
+        assert isinstance(app.screen, CaseScreen)
+
+
+async def test_quit_asks_when_unsaved_and_cancel_keeps_working(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        _field(screen, "serum-sodium").input.value = "143"
+        await pilot.pause()
+        await pilot.press("ctrl+q")
+        await pilot.pause()
+        assert isinstance(app.screen, ChoiceScreen)
+        await pilot.press("escape")
+        await pilot.pause()
+        assert app.screen is screen and app.is_running
+        await pilot.press("ctrl+o")  # close asks too
+        await pilot.pause()
+        assert isinstance(app.screen, ChoiceScreen)
+        await pilot.press("tab", "enter")  # "Discard changes"
+        await pilot.pause()
+        assert not isinstance(app.screen, CaseScreen)
+    assert load_case(demo).draws[-1].serum.sodium.canonical == 141  # file untouched (143 dropped)
+
+
+async def test_quit_with_save_writes_then_exits(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        _field(app.screen, "serum-chloride").input.value = "107"
+        await pilot.pause()
+        await pilot.press("ctrl+q")
+        await pilot.pause()
+        await pilot.press("enter")  # "Save" has the focus
+        await pilot.pause()
+    assert not app.is_running
+    assert load_case(demo).draws[-1].serum.chloride.canonical == 107
+
+
+async def test_help_on_every_screen_and_palette_lists_every_action(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        await pilot.press("f1")
+        await pilot.pause()
+        assert isinstance(app.screen, HelpScreen)
+        text = str(app.screen.query_one("#help-text").render())
+        assert "Decision support" in text and "NOT VALID" in text and "Ctrl+T" in text
+        await pilot.press("escape")
+        titles = {c.title for c in app.get_system_commands(screen)}
+        for action in ("Save", "Save as…", "Duplicate case", "New case", "Close case", "New draw",
+                       "Delete draw", "Next draw", "Draft note", "Paste lab report", "Trends",
+                       "Compare draws", "Switch unit", "High-contrast theme", "Help"):  # fmt: skip
+            assert action in titles
+        await pilot.press("f7")
+        await pilot.press("f1")
+        await pilot.pause()
+        assert isinstance(app.screen, HelpScreen)
+
+
+async def test_terminal_too_small_shows_a_message(tmp_path: Path) -> None:
+    app = _app(tmp_path)
+    async with app.run_test(size=(60, 20)) as pilot:
+        await pilot.pause()
+        assert isinstance(app.screen, TooSmallScreen)
+        assert "too small" in str(app.screen.query_one("#too-small").render())
+        await pilot.resize_terminal(80, 24)
+        await pilot.pause()
+        assert not isinstance(app.screen, TooSmallScreen)
+
+
+async def test_optional_screens_open_or_say_they_are_missing(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        for key in ("f8", "f9"):
+            await pilot.press(key)
+            await pilot.pause()
+            opened = app.screen is not screen
+            missing = any("not available" in n.message for n in app._notifications)
+            assert opened or missing
+            if opened:
+                await pilot.press("escape")
+                await pilot.pause()
+        assert app.is_running
