@@ -197,15 +197,21 @@ def _once(text: str | None, seen: set[str] | None) -> str | None:
 
 
 def clause(
-    f: Finding, label: str, brief: bool, with_reading: bool = True, seen: set[str] | None = None
+    f: Finding,
+    label: str,
+    brief: bool,
+    with_reading: bool = True,
+    seen: set[str] | None = None,
+    words_for: str | None = None,
 ) -> str:
     """One clause (no capital, no full stop) stating ``f`` with its validity.
 
     ``label`` names the index in the sentence, e.g. "the urine anion gap". ``seen`` collects the
-    caveats already written, so a caveat shared by two indices is written once.
+    caveats already written, so a caveat shared by two indices is written once. ``words_for``
+    replaces the usual words for the reading when the context changes them.
     """
     if stated(f):
-        words = reading(f, brief) if with_reading else None
+        words = (words_for or reading(f, brief)) if with_reading else None
         return f"{label} is {value_of(f)}" + caution_suffix(f, words, seen)
     if f.status is Status.not_valid:
         why = _once(caveat(f), seen)

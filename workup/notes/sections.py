@@ -18,6 +18,11 @@ from workup.notes import phrases as ph
 from workup.notes.values import values_line, when, written_number
 from workup.settings import DEFAULTS
 
+METABOLIC_ACIDOSES = frozenset(
+    {"normal_gap_metabolic_acidosis", "high_gap_metabolic_acidosis", "metabolic_acidosis"}
+)
+"""Disorder ids of a metabolic acidosis (docs: workup.findings.Disorder)."""
+
 
 @dataclass
 class Section:
@@ -57,14 +62,21 @@ class Context:
         """The assessed draw's finding ``id``, or None when this version does not compute it."""
         return self.a.indices.get(id)
 
-    def clause(self, id: str, label: str, with_reading: bool = True) -> str | None:
+    def clause(
+        self, id: str, label: str, with_reading: bool = True, words: str | None = None
+    ) -> str | None:
         """The clause for finding ``id`` (None when absent), noting the reasons it wrote."""
         f = self.finding(id)
         if f is None:
             return None
         if self.brief:
             label = ph.BRIEF_LABEL.get(id, label)
-        return ph.clause(f, label, self.brief, with_reading, self.said)
+        return ph.clause(f, label, self.brief, with_reading, self.said, words)
+
+    @property
+    def acidosis(self) -> bool:
+        """True when the assessed draw has a metabolic acidosis of any kind."""
+        return any(d.id in METABOLIC_ACIDOSES for d in self.a.disorders)
 
     @property
     def draw(self) -> Draw | None:
@@ -324,12 +336,6 @@ def _and(items: list[str]) -> str:
 # gaps
 
 
-METABOLIC_ACIDOSES = frozenset(
-    {"normal_gap_metabolic_acidosis", "high_gap_metabolic_acidosis", "metabolic_acidosis"}
-)
-"""Disorder ids of a metabolic acidosis (docs: workup.findings.Disorder)."""
-
-
 def gaps_section(c: Context) -> Section:
     """Anion gap, its albumin-corrected value, the delta ratio and (consult) the osmolal gap."""
     s = Section("gaps", "Gaps")
@@ -339,8 +345,7 @@ def gaps_section(c: Context) -> Section:
         parts.append(c.clause("anion_gap_albumin_corrected", "the albumin-corrected gap"))
     delta = c.finding("delta_ratio")
     # The delta ratio only means something alongside a metabolic acidosis.
-    acidosis = any(d.id in METABOLIC_ACIDOSES for d in c.a.disorders)
-    if delta is not None and acidosis and delta.status is not Status.needs_input:
+    if delta is not None and c.acidosis and delta.status is not Status.needs_input:
         parts.append(c.clause("delta_ratio", "the delta ratio"))
     osm = c.finding("serum_osmolal_gap")
     if osm is not None and not c.brief and osm.status is not Status.needs_input:
@@ -394,7 +399,13 @@ def renal_acid_section(c: Context) -> Section:
             continue  # the daily note keeps the osmolal gap it was estimated from
         if c.brief and id == "urine_ammonium_creatinine_ratio" and parts:
             continue  # one ammonium measure is enough for a daily note
-        parts.append(c.clause(id, label or _ammonium_label(f)))
+        words = None
+        if id == "urine_ph" and not c.brief and not c.acidosis:
+            # "appropriately" and "despite the acidosis" only hold during an acidosis.
+            words = {"acidified": "acidified", "not_acidified": "not acidified"}.get(
+                f.interpretation or ""
+            )
+        parts.append(c.clause(id, label or _ammonium_label(f), words=words))
     parts = [p for p in parts if p]
     if parts:
         s.sentences.append(ph.sentence(ph.join_clauses(parts)))
