@@ -111,7 +111,18 @@ def case_from_text_migrated(
         except MigrationError as exc:
             raise CaseFileError(source, [Problem("schema", str(exc))]) from None
         node = None  # line numbers refer to the old layout
-    return case_from_data(data, source, node)
+    return _validate(data, source, node)
+
+
+def _validate(data: dict[str, Any], source: str, node: Any = None) -> Case:
+    try:
+        return case_from_data(data, source, node)
+    except OverflowError:
+        # quantity.read_value turns a huge integer into a float and overflows; until the
+        # validator reports it, say so here rather than let the app crash.
+        raise CaseFileError(
+            source, [Problem("", "a number in the file is too large to be a measurement")]
+        ) from None
 
 
 def case_from_bytes_migrated(
@@ -144,4 +155,4 @@ def case_from_data_migrated(
             data = migrate(data, registry=registry)
         except MigrationError as exc:
             raise CaseFileError(source, [Problem("schema", str(exc))]) from None
-    return case_from_data(data, source)
+    return _validate(data, source)

@@ -35,6 +35,12 @@ FUZZ = settings(
 )
 
 
+KNOWN_ESCAPES: tuple[type[BaseException], ...] = (OverflowError,)
+"""Known bug in workup.quantity (not fixed here): a huge integer panel value raises OverflowError
+from caseio's loaders. Pinned by test_huge_integer_value_is_a_case_file_error (strict xfail);
+when that passes, empty this tuple. The migrating loader the app uses already catches it."""
+
+
 def _check(raw: bytes | str) -> None:
     loaders = (
         (case_from_bytes, case_from_bytes_migrated)
@@ -44,6 +50,11 @@ def _check(raw: bytes | str) -> None:
     for load in loaders:
         try:
             got = load(raw)
+        except KNOWN_ESCAPES:
+            if load in (case_from_bytes, case_from_text):
+                RUNS["known_bug_hits"] += 1
+                continue
+            raise
         except CaseFileError as exc:
             assert str(exc)  # a message the user can read
             assert all(p.message for p in exc.problems)
@@ -56,6 +67,7 @@ SCALARS = st.sampled_from(
         "1e999999",
         "-1e999999",
         "9" * 5000,
+        "9" * 400,
         "0x" + "f" * 400,
         "0o777777777777777777777",
         ".inf",
@@ -248,6 +260,24 @@ def test_bytes_that_are_not_utf8_or_too_large():
     for raw in (b"\xff\xfe\x00l\x00a", b"label: \xc3\x28", b"a" * 1_000_001):
         with pytest.raises(CaseFileError):
             case_from_bytes(raw)
+
+
+HUGE = "label: x\ndraws: [{label: a, serum: {sodium: " + "9" * 400 + "}}]\n"
+
+
+@pytest.mark.xfail(
+    strict=True,
+    raises=OverflowError,
+    reason="workup.quantity.read_value: float() of a huge int raises OverflowError (owner to fix)",
+)
+def test_huge_integer_value_is_a_case_file_error():
+    with pytest.raises(CaseFileError):
+        case_from_text(HUGE)
+
+
+def test_the_migrating_loader_reports_a_huge_integer_value():
+    with pytest.raises(CaseFileError, match="too large"):
+        case_from_bytes_migrated(HUGE.encode())
 
 
 def teardown_module(module):
