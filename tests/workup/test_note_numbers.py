@@ -137,10 +137,13 @@ def test_values_line_keeps_each_value_as_written(tmp_path) -> None:
         "draws:\n  - label: one\n"
         "    serum: {sodium: 139.5, potassium: 3.0, chloride: 110, bicarbonate: 20,"
         " creatinine: 1.25 mg/dL}\n"
+        "    urine: {creatinine: 12345.67 umol/L}\n"
         "    blood_gas: {ph: 7.40, pco2: 4.2 kPa}\n",
         encoding="utf-8",
     )
     case = load_case(path)
+    flat = " ".join(draft_note(assess(case), case, "full").split())
+    assert "creatinine 12345.67 umol/L" in flat
     note = draft_note(assess(case), case, "brief")
     flat = " ".join(note.split())
     assert "Na 139.5" in flat

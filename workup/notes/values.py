@@ -103,7 +103,8 @@ def written_number(panel: Panel, key: str, m: Measurement) -> str:
     """
     if m.word is not None:
         return m.word
-    text = f"{m.value:g}"
+    # The shortest text that reads back as the same float: never rounds what was entered.
+    text = str(int(m.value)) if float(m.value).is_integer() else repr(float(m.value))
     want = _MIN_DECIMALS.get((panel, key, m.unit), 0)
     have = len(text.partition(".")[2]) if "e" not in text else want
     if have < want:
