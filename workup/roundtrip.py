@@ -49,7 +49,7 @@ def load_commented(text: str) -> CommentedMap:
     """The round-trip tree of a case file's text; raises RoundTripError if it is not a mapping."""
     try:
         data = _yaml().load(text)
-    except (YAMLError, ValueError, TypeError, RecursionError) as exc:
+    except (YAMLError, ValueError, TypeError, RecursionError, OverflowError) as exc:
         raise RoundTripError(f"cannot read the file for a comment-keeping save: {exc}") from None
     if not isinstance(data, CommentedMap):
         raise RoundTripError("the file is not a mapping")
@@ -72,7 +72,7 @@ def roundtrip_text(old_text: str, case: Case) -> str:
         _merge_map(tree, new, (), system)
         out = io.StringIO()
         _yaml().dump(tree, out)
-    except (YAMLError, ValueError, TypeError, RecursionError) as exc:
+    except (YAMLError, ValueError, TypeError, RecursionError, OverflowError) as exc:
         raise RoundTripError(f"cannot write the merged file: {exc}") from None
     text = out.getvalue()
     if not old_text.lstrip().startswith("%YAML"):
@@ -82,7 +82,7 @@ def roundtrip_text(old_text: str, case: Case) -> str:
         try:
             if same_case(case_from_text(candidate), case):
                 return candidate
-        except CaseFileError:
+        except (CaseFileError, OverflowError):
             continue
     raise RoundTripError("the merged file would not read back to the same case")
 
@@ -202,7 +202,7 @@ def _same_measurement(
     try:
         m_old = read_value(a, old, system)
         m_new = read_value(a, new, system)
-    except (ValueProblem, ValueError, TypeError):
+    except (ValueProblem, ValueError, TypeError, OverflowError):
         return False
     return (m_old.value, m_old.unit, m_old.word) == (m_new.value, m_new.unit, m_new.word)
 

@@ -295,3 +295,13 @@ def test_restoring_one_draft_never_overwrites_another_of_the_same_case(case_file
     assert sorted(d.case.notes for d in list_drafts()) == ["first crash", "second crash"]
     r.close()
     assert [d.case.notes for d in pending_drafts()] == ["second crash"]
+
+
+def test_a_forced_save_over_a_file_with_a_huge_number_still_writes(case_file):
+    with CaseSession.open(case_file) as s:
+        text = case_file.read_text().replace("sodium: 137", "sodium: " + "9" * 400)
+        case_file.write_text(text)
+        result = s.save(force=True)
+        assert load_case(case_file) == s.case
+        assert "9" * 400 not in case_file.read_text()
+        assert result.backup.path.read_text() == text
