@@ -36,7 +36,7 @@ async def probe(app: App[Any], keys: list[str], digit: str = "7") -> dict[str, A
         await pilot.press(digit)
         await pilot.pause()
         changed = [
-            w.id or type(w).__name__
+            f"{w.id or type(w).__name__}: {before[id(w)]!r} -> {w.value!r}"
             for w in app.screen.query(Input)
             if before.get(id(w)) is not None and w.value != before[id(w)]
         ]

@@ -10,6 +10,7 @@ from __future__ import annotations
 
 import json
 import os
+import re
 import shutil
 import subprocess
 import sys
@@ -52,6 +53,17 @@ def bench_env(home: Path) -> dict[str, str]:
         "XDG_CACHE_HOME": str(home / "cache"),
         "XDG_STATE_HOME": str(home / "state"),
     }
+
+
+def reset_state(env: dict[str, str]) -> None:
+    """Empty the private state folder, so no run finds a draft or lock left by the one before.
+
+    The cache folder is kept: a fellow's second start finds its caches warm too.
+    """
+    state = Path(env["XDG_STATE_HOME"])
+    if state.exists():
+        shutil.rmtree(state)
+    state.mkdir(parents=True)
 
 
 def workup_argv(*args: str) -> list[str]:
@@ -114,12 +126,14 @@ def one_run(
     cwd: Path,
     *,
     pre_keys: list[bytes] | None = None,
+    quit_keys: list[bytes] | None = None,
     type_digit: bool = True,
     idle_window: float = 2.0,
     timeout: float = 60,
     quiet: float = QUIET,
 ) -> RunResult:
     """Start ``argv`` in a pty, measure it as described in the module docstring, and quit it."""
+    reset_state(env)
     s = Session(argv, env, str(cwd))
     s.start()
     try:
@@ -144,12 +158,14 @@ def one_run(
             sent = s.send(DIGIT)
             last = s.wait_quiet(sent, quiet, 10)
             key_bytes = bytes_between(s.chunks, sent, last)
-        s.quit()
+        s.quit(then=quit_keys or [])
     except BaseException:
         s.kill()
         raise
     if s.exit_status != 0:
-        raise RuntimeError(f"{Path(argv[0]).name} exited with status {s.exit_status}")
+        code = os.waitstatus_to_exitcode(s.exit_status or 0)
+        how = f"was killed by signal {-code}" if code < 0 else f"exited with code {code}"
+        raise RuntimeError(f"{Path(argv[0]).name} {how} after Ctrl+Q: {screen_text(s.output())}")
     return RunResult(
         settled_s=settled,
         first_frame_s=first,
@@ -168,17 +184,27 @@ def paired_runs(
     pairs: int,
     *,
     app_keys: list[bytes] | None = None,
+    app_quit_keys: list[bytes] | None = None,
     idle_window: float = 2.0,
 ) -> tuple[list[RunResult], list[RunResult]]:
     """``pairs`` runs of each, in alternating turns; one warm-up of each first (not kept)."""
-    one_run(app, env, cwd, type_digit=False, idle_window=0.1)
+    one_run(app, env, cwd, type_digit=False, quit_keys=app_quit_keys, idle_window=0.1)
     one_run(baseline, env, cwd, type_digit=False, idle_window=0.1)
     measured: list[RunResult] = []
     base: list[RunResult] = []
     for order in alternating_order(pairs):
         for who in order:
             if who == "measured":
-                measured.append(one_run(app, env, cwd, pre_keys=app_keys, idle_window=idle_window))
+                measured.append(
+                    one_run(
+                        app,
+                        env,
+                        cwd,
+                        pre_keys=app_keys,
+                        quit_keys=app_quit_keys,
+                        idle_window=idle_window,
+                    )
+                )
             else:
                 base.append(one_run(baseline, env, cwd, idle_window=idle_window))
     return measured, base
@@ -198,6 +224,15 @@ def library_run(cases_dir: Path, env: dict[str, str], cwd: Path, timeout: float 
         timeout=timeout,
         quiet=2.0,
     )
+
+
+_ESCAPES = re.compile(rb"\x1b(\[[0-9;?<>=$]*[ -/]*[@-~]|\][^\x07]*\x07|[()][0-9A-Za-z]|.)")
+
+
+def screen_text(output: bytes, limit: int = 160) -> str:
+    """The last words a program wrote, escape sequences removed (for error messages)."""
+    text = _ESCAPES.sub(b" ", output).decode("utf-8", "replace")
+    return " ".join(text.split())[-limit:]
 
 
 def copy_cases(src: Path, dst: Path) -> Path:

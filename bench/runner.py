@@ -27,8 +27,14 @@ RESULTS = ROOT / "bench" / "results" / "latest.json"
 DEMO_CASES = ROOT / "cases"
 CASE_FILE = "distal-rta-classic.yaml"
 """The demo case opened for the terminal figures (two draws, every panel filled)."""
-APP_KEYS: list[str] = []
-"""Keys pressed after the first screen settles to reach the entry field (none: it has focus)."""
+APP_KEYS: list[str] = ["f2"]
+"""Keys pressed after the first screen settles to reach the entry field.
+
+`workup CASE.yaml` opens on the findings; F2 shows the draw's entry form with its first field
+focused (bench.probe checks that the digit then lands in an input).
+"""
+APP_QUIT_KEYS: list[str] = ["tab", "enter"]
+"""Answer to the unsaved-changes question Ctrl+Q asks after the digit: move to Discard, press it."""
 LIBRARY_SIZES = (1000, 10000)
 MEMORY_LIBRARY = 10000
 
@@ -140,9 +146,13 @@ def terminal_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]
     env = pty_bench.bench_env(work / "home")
     cases = pty_bench.copy_cases(DEMO_CASES, work / "cases")
     case = cases / CASE_FILE
-    app_probe = pty_bench.probe(["app", str(cases), str(case), "--keys", ",".join(APP_KEYS)], env)
-    zero = pty_bench.probe(["baseline", "0"], env)["widgets"]
-    one = pty_bench.probe(["baseline", "1"], env)["widgets"]
+    # The probe types into the case, so it gets its own home: nothing it leaves (a draft, a
+    # lock) can reach the timed runs.
+    probe_env = pty_bench.bench_env(work / "home-probe")
+    keys = ",".join(APP_KEYS)
+    app_probe = pty_bench.probe(["app", str(cases), str(case), "--keys", keys], probe_env)
+    zero = pty_bench.probe(["baseline", "0"], probe_env)["widgets"]
+    one = pty_bench.probe(["baseline", "1"], probe_env)["widgets"]
     form_rows = pty_bench.rows_for(app_probe["widgets"], zero, one - zero)
     form_widgets = zero + (one - zero) * form_rows
     log(
@@ -157,6 +167,7 @@ def terminal_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]
         work,
         plan.pairs,
         app_keys=[key_bytes(k) for k in APP_KEYS],
+        app_quit_keys=[key_bytes(k) for k in APP_QUIT_KEYS],
         idle_window=plan.idle_window,
     )
     name = f"bare form, {form_widgets} widgets"
@@ -164,7 +175,10 @@ def terminal_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]
         f"The app's first screen has {app_probe['widgets']} widgets ({app_probe['screen']}); "
         f"the bare form has {form_widgets}."
     )
-    key_note = ""
+    key_note = (
+        f"Keys before the digit: {', '.join(APP_KEYS) or 'none'}; in the headless check the digit "
+        f"changed {'; '.join(app_probe['digit_changed'])} (the bare form: an empty input)."
+    )
     if not app_probe["focus_is_input"] or not app_probe["digit_changed"]:
         key_note = (
             "The digit did not reach an input field in the headless check (focus: "

@@ -218,31 +218,43 @@ class Session:
                 return last
         raise TimeoutError(f"output did not go quiet within {timeout:.0f} s")
 
-    def quit(self, timeout: float = 10.0) -> None:
-        """Send Ctrl+Q, drain the output and reap the child (killing it after ``timeout``)."""
+    def quit(self, then: Sequence[bytes] = (), grace: float = 1.5, timeout: float = 10.0) -> bool:
+        """Send Ctrl+Q, drain the output and reap the child (killing it after ``timeout``).
+
+        If the child is still running ``grace`` s after Ctrl+Q (a program asking about unsaved
+        changes), the keys in ``then`` are typed one by one to answer it. Returns True when the
+        child exited by itself.
+        """
         if self.fd >= 0:
             with contextlib.suppress(OSError):  # the child may already have gone
                 self.send(CTRL_Q)
+        self.pump(grace)
+        for key in then:
+            if self.fd < 0:
+                break
+            with contextlib.suppress(OSError):
+                self.send(key)
+            self.pump(0.3)
         deadline = self.now() + timeout
         while self.fd >= 0 and self.now() < deadline:
             self._read_once(0.1)
-        self._reap(deadline)
+        return self._reap(deadline)
 
-    def _reap(self, deadline: float) -> None:
+    def _reap(self, deadline: float) -> bool:
         while True:
             pid, status, usage = os.wait4(self.pid, os.WNOHANG)
             if pid == self.pid:
                 self.exit_status = status
                 self.max_rss_kib = int(usage.ru_maxrss)  # KiB on Linux
                 self._close_fd()
-                return
+                return True
             if self.now() >= deadline:
                 os.kill(self.pid, signal.SIGKILL)
                 _, status, usage = os.wait4(self.pid, 0)
                 self.exit_status = status
                 self.max_rss_kib = int(usage.ru_maxrss)
                 self._close_fd()
-                return
+                return False
             if self.fd >= 0:
                 self._read_once(0.05)
             else:
@@ -253,8 +265,9 @@ class Session:
         if self.pid > 0 and self.exit_status is None:
             with contextlib.suppress(ProcessLookupError):
                 os.kill(self.pid, signal.SIGKILL)
-            _, self.exit_status, usage = os.wait4(self.pid, 0)
-            self.max_rss_kib = int(usage.ru_maxrss)
+            with contextlib.suppress(ChildProcessError):  # already reaped
+                _, self.exit_status, usage = os.wait4(self.pid, 0)
+                self.max_rss_kib = int(usage.ru_maxrss)
         self._close_fd()
 
     def output(self) -> bytes:
