@@ -14,6 +14,7 @@ import re
 import shutil
 import subprocess
 import sys
+from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
@@ -118,6 +119,10 @@ class RunResult:
     """Bytes written in answer to one digit, until quiet (None when no digit was typed)."""
     max_rss_mib: float
     """Peak resident memory of the process."""
+    screen: str = ""
+    """The last words on screen before quitting, escape sequences removed."""
+    ready: str = ""
+    """What the readiness check said ("" when there was none)."""
 
 
 def one_run(
@@ -131,6 +136,7 @@ def one_run(
     idle_window: float = 2.0,
     timeout: float = 60,
     quiet: float = QUIET,
+    ready: Callable[[bytes], str | None] | None = None,
 ) -> RunResult:
     """Start ``argv`` in a pty, measure it as described in the module docstring, and quit it."""
     reset_state(env)
@@ -138,6 +144,14 @@ def one_run(
     s.start()
     try:
         settled = s.wait_settled(quiet, timeout)
+        verdict = ""
+        if ready is not None:
+            # A screen may fall quiet while work goes on behind it (a worker reading a large
+            # folder): keep waiting until the check says the screen is ready or failed.
+            deadline = s.now() + timeout
+            while not (verdict := ready(s.output()) or "") and s.now() < deadline:
+                settled = s.wait_quiet(s.now(), quiet, max(deadline - s.now(), quiet * 2))
+            verdict = verdict or f"not ready within {timeout:.0f} s"
         first = s.chunks[first_frame_index(s.chunks) or 0].t
         screen_bytes = bytes_between(s.chunks, 0.0, settled)
         # Skip the first moments after settling: Textual starts a cursor blinking only after a
@@ -173,6 +187,8 @@ def one_run(
         idle_bytes_per_s=idle,
         key_bytes=key_bytes,
         max_rss_mib=(s.max_rss_kib or 0) / 1024,
+        screen=screen_text(s.output(), 400),
+        ready=verdict,
     )
 
 
@@ -213,7 +229,8 @@ def paired_runs(
 def library_run(cases_dir: Path, env: dict[str, str], cwd: Path, timeout: float = 180) -> RunResult:
     """Open the library screen on ``cases_dir`` and read its peak memory once it is listed.
 
-    A longer silence (2 s) counts as settled here, since a large folder may be listed in steps.
+    A longer silence (2 s) counts as settled here, since a large folder may be listed in steps,
+    and the screen must show a generated case (or an error) before the run is ended.
     """
     return one_run(
         workup_argv("--cases", str(cases_dir)),
@@ -223,7 +240,22 @@ def library_run(cases_dir: Path, env: dict[str, str], cwd: Path, timeout: float 
         idle_window=0.5,
         timeout=timeout,
         quiet=2.0,
+        ready=library_ready,
     )
+
+
+_GENERATED_LABEL = re.compile(rb"#\d{5}")
+_LIBRARY_ERROR = re.compile(rb"cannot read the library[^\x1b]*")
+
+
+def library_ready(output: bytes) -> str | None:
+    """ "listed" once a generated case label is on screen, "error: ..." if the screen said so."""
+    error = _LIBRARY_ERROR.search(output)
+    if error:
+        return "error: " + error.group(0).decode("utf-8", "replace").strip()
+    if _GENERATED_LABEL.search(output):
+        return "listed"
+    return None
 
 
 _ESCAPES = re.compile(rb"\x1b(\[[0-9;?<>=$]*[ -/]*[@-~]|\][^\x07]*\x07|[()][0-9A-Za-z]|.)")

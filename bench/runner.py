@@ -371,6 +371,9 @@ def memory_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
     folder = work / "library"
     generate_library(folder, MEMORY_LIBRARY)
     runs = [pty_bench.library_run(folder, env, work) for _ in range(plan.memory_reps)]
+    failed = [r.ready for r in runs if r.ready != "listed"]
+    if failed:
+        raise RuntimeError(f"the library screen did not list the cases: {failed[0]}")
     rss = [r.max_rss_mib for r in runs]
     rows = [
         Row(

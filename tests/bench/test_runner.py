@@ -6,7 +6,7 @@ import pytest
 
 from bench import report
 from bench.machine import cpu_model
-from bench.pty_bench import bench_env, rows_for
+from bench.pty_bench import bench_env, library_ready, rows_for
 from bench.runner import key_bytes, library_rows_from, missing_rows
 
 
@@ -73,3 +73,10 @@ def test_cpu_model_from_cpuinfo():
     text = "processor\t: 0\nvendor_id\t: X\nmodel name\t: Some CPU @ 2.0GHz\n"
     assert cpu_model(text) == "Some CPU @ 2.0GHz"
     assert cpu_model("processor : 0\n") == "unknown"
+
+
+def test_library_ready_needs_a_listed_case_or_reports_the_error():
+    assert library_ready(b"\x1b[2;1Hreading the library\xe2\x80\xa6") is None
+    assert library_ready(b"\x1b[5;3HDemo B #00042\x1b[0m") == "listed"
+    said = library_ready(b"\x1b[3;1Hcannot read the library: disk gone\x1b[0m")
+    assert said == "error: cannot read the library: disk gone"
