@@ -23,7 +23,6 @@ from textual.widgets import (
     Footer,
     Input,
     Select,
-    SelectionList,
     Static,
     TabbedContent,
     TabPane,
@@ -42,11 +41,11 @@ from screens.entry import (
     unit_choices,
 )
 from screens.findings_view import CausesView, FindingsView
+from screens.flags import FlagList
 from workup import diagram
 from workup.analytes import Panel, UnitSystem
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
-from workup.context import MEANING, Flag
 from workup.model import Case, Draw, GasSample, LoadingTest, Patient, Sex
 from workup.quantity import Measurement, convert
 
@@ -145,7 +144,7 @@ class CaseScreen(Screen[None]):
                     yield _meta("draw", _select(self._draw_options(), self.index, "draw-select"),
                                 "draw-count")
                     yield _meta("draw label", _input(d.label, "meta-label", 80), "st-label")
-                    yield _meta("taken (2026-11-30T08:15)", _input(taken, "meta-taken", 30),
+                    yield _meta("taken (YYYY-MM-DDTHH:MM)", _input(taken, "meta-taken", 30),
                                 "st-taken")
                     yield _meta("during loading test",
                                 _select(tests, d.during.value if d.during else NO_TEST,
@@ -180,13 +179,9 @@ class CaseScreen(Screen[None]):
                 yield _meta("weight (70 kg, 154 lb)",
                             _input(c.patient.weight or "", "case-weight", 20), "st-weight")
                 yield _meta("case notes", _input(c.notes or "", "case-notes", 2000), "st-cnotes")
-                yield Static("Clinical context (Space toggles a flag)", classes="section")
-                yield SelectionList[str](
-                    *[(f"{f.value.replace('_', ' ')}: {MEANING[f]}", f.value, f in c.context)
-                      for f in Flag],
-                    id="case-context",
-                    compact=True,
-                )
+                yield Static("Clinical context (Space or Enter toggles a flag)",
+                             classes="section")
+                yield FlagList(list(c.context), id="case-context", compact=True)
             with TabPane("F4 Findings", id="tab-findings"):
                 yield FindingsView(id="findings")
             with TabPane("F5 Causes", id="tab-causes"):
@@ -198,6 +193,9 @@ class CaseScreen(Screen[None]):
     # fmt: on
 
     def on_mount(self) -> None:
+        # Long texts read from their start, not scrolled to the cursor at their end.
+        for w in self.query(".meta-row Input").results(Input):
+            w.cursor_position = 0
         self._load_draw()
         self._recompute()
         self.query_one("#in-serum-sodium", Input).focus()
@@ -243,16 +241,12 @@ class CaseScreen(Screen[None]):
         self._set_select("#case-sex", c.patient.sex.value if c.patient.sex else "none")
         self._set_input("#case-weight", c.patient.weight or "")
         self._set_input("#case-notes", c.notes or "")
-        sel = self.query_one("#case-context", SelectionList)
-        with self._quiet():
-            sel.deselect_all()
-            for f in c.context:
-                sel.select(f.value)
+        self.query_one("#case-context", FlagList).set_flags(list(c.context))
 
     def _quiet(self):
         # Values the screen sets itself must not come back as edits: a late Changed message
         # would otherwise be applied to whichever draw is showing when it arrives.
-        return self.prevent(Input.Changed, Select.Changed, SelectionList.SelectedChanged)
+        return self.prevent(Input.Changed, Select.Changed, FlagList.Toggled)
 
     def _set_input(self, selector: str, text: str) -> None:
         w = self.query_one(selector, Input)
@@ -466,10 +460,9 @@ class CaseScreen(Screen[None]):
         sex = None if event.value in ("none", Select.NULL) else Sex(event.value)
         self._patient_update("sex", sex, "st-sex")
 
-    @on(SelectionList.SelectedChanged, "#case-context")
-    def _context_changed(self, event: SelectionList.SelectedChanged) -> None:
-        chosen = set(event.selection_list.selected)
-        flags = [f for f in Flag if f.value in chosen]
+    @on(FlagList.Toggled, "#case-context")
+    def _context_changed(self, event: FlagList.Toggled) -> None:
+        flags = event.flags
         if flags != list(self.case.context):
             self.case.context = flags
             self._mark_dirty()
@@ -571,8 +564,7 @@ class CaseScreen(Screen[None]):
         own = self.specific_cautions()
         line = self.query_one("#caution-line", Static)
         if own:
-            more = f" (+{len(own) - 1} more: F1)" if len(own) > 1 else " (F1: all cautions)"
-            line.update(f"! {own[0]}{more}")
+            line.update(f"! {len(own)} caution(s), F1 lists all: {own[0]}")
         else:
             line.update(f"! {CAUTION_SHORT} (F1)")
 
@@ -764,9 +756,15 @@ class CaseScreen(Screen[None]):
             if (answer == "save" and self.save_now()) or answer == "discard":
                 then()
 
+        refused = self.refused_summary()
+        lost = (
+            f"\n{len(refused)} refused value(s) are not part of the case and will be lost."
+            if refused
+            else ""
+        )
         self.app.push_screen(
             ChoiceScreen(
-                f"{self.case.label!r} has unsaved changes.",
+                f"{self.case.label!r} has unsaved changes.{lost}",
                 [("save", "Save"), ("discard", "Discard changes"), ("cancel", "Cancel")],
             ),
             done,

@@ -99,13 +99,12 @@ class FindingsView(Vertical):
         self._columns(self.size.width or 80)
 
     def _columns(self, width: int) -> None:
-        # Mark, value and status keep their full width; name and reading share the rest.
+        # Value and status (mark and word) keep their full width; name and reading share the rest.
         table = self.query_one(IndexTable)
         table.clear(columns=True)
-        rest = max(width - 2 - (1 + 14 + 13) - 2 * 5, 24)
+        rest = max(width - 2 - (14 + 13) - 2 * 4, 24)
         name = max(rest * 2 // 3, 16)
         self._width = width
-        table.add_column("", key="mark", width=1)
         table.add_column("Index", key="name", width=name)
         table.add_column("Value", key="value", width=14)
         table.add_column("Status", key="status", width=13)
@@ -132,7 +131,6 @@ class FindingsView(Vertical):
         disorders.update(disorders_text(a))
         for f in a.indices.values():
             table.add_row(
-                STATUS_MARK[f.status],
                 f.name,
                 fmt_value(f) if f.value is not None else "—",
                 status_text(f),

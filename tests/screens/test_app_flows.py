@@ -19,11 +19,13 @@ from screens.case_screen import CaseScreen
 from screens.dialogs import ChoiceScreen, TooSmallScreen
 from screens.entry import ValueField
 from screens.findings_view import IndexTable
+from screens.flags import FlagList
 from screens.help_screen import HelpScreen
 from screens.note_screen import TMUX_HINT, NoteScreen
 from workup.assess import assess
 from workup.caseio import load_case
-from workup.findings import STATUS_WORD
+from workup.context import Flag
+from workup.findings import STATUS_MARK, STATUS_WORD
 from workup.formatting import fmt_value
 from workup.model import LoadingTest
 
@@ -71,10 +73,10 @@ async def test_enter_a_case_by_keys_and_see_its_findings(tmp_path: Path) -> None
         assert gap.value == pytest.approx(8.0)  # 139 − (116 + 15)
         await pilot.press("f4")
         await pilot.pause()
-        rows = {r[1]: r for r in _table_rows(screen)}
+        rows = {r[0]: r for r in _table_rows(screen)}
         row = rows[gap.name]
-        assert row[2] == fmt_value(gap)
-        assert STATUS_WORD[gap.status] in row[3]
+        assert row[1] == fmt_value(gap)
+        assert f"{STATUS_MARK[gap.status]} {STATUS_WORD[gap.status]}" == row[2]
         assert "UNSAVED" in str(screen.query_one("#titlebar").render())
 
 
@@ -239,6 +241,30 @@ async def test_switch_draws_and_add_a_loading_test_draw(demo: Path) -> None:
         assert "another draw" in str(screen.query_one("#st-label").render())
         # Draw 1's values survived the round trip through the form.
         assert screen.case.draws[0].serum.chloride.canonical == 116
+
+
+async def test_case_details_and_context_flags_by_keys(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        await pilot.press("f3")
+        flags = screen.query_one("#case-context", FlagList)
+        flags.focus()
+        await pilot.press("home", "space")  # first flag: diarrhea
+        await pilot.pause()
+        assert Flag.diarrhea in screen.case.context
+        assert Flag.autoimmune_disease in screen.case.context  # from the file, kept
+        assert str(flags.get_option_at_index(0).prompt).startswith("[x] diarrhea")
+        await pilot.press("space")
+        await pilot.pause()
+        assert Flag.diarrhea not in screen.case.context
+        assert str(flags.get_option_at_index(0).prompt).startswith("[ ] diarrhea")
+        screen.query_one("#case-weight", Input).value = "61 stone"
+        screen.query_one("#case-age", Input).value = "35"
+        await pilot.pause()
+        assert screen.case.patient.weight == "61 kg" and screen.case.patient.age == 35
+        assert "x refused" in str(screen.query_one("#st-weight").render())
 
 
 async def test_note_is_copied_with_osc52_and_written_beside_the_case(demo: Path) -> None:
