@@ -72,7 +72,7 @@ def load_case(path: str | Path) -> Case:
     return case_from_bytes(raw, source)
 
 
-def case_from_bytes(raw: bytes, source: str = "<text>") -> Case:
+def case_from_bytes(raw: bytes, source: str = "<text>", registry: dict | None = None) -> Case:
     """Decode and read case-file bytes."""
     if len(raw) > MAX_FILE_BYTES:
         raise CaseFileError(source, [Problem("", f"{len(raw)} bytes is too large for a case file")])
@@ -82,7 +82,7 @@ def case_from_bytes(raw: bytes, source: str = "<text>") -> Case:
         raise CaseFileError(
             source, [Problem("", f"not UTF-8 text (byte {exc.start}); is this a case file?")]
         ) from None
-    return case_from_text(text, source)
+    return case_from_text(text, source, registry)
 
 
 def parse_yaml(text: str, source: str = "<text>") -> tuple[Any, yaml.Node | None]:
@@ -145,7 +145,7 @@ def _check_duplicates(node: yaml.Node, source: str) -> None:
             stack.extend(n.value)
 
 
-def case_from_text(text: str, source: str = "<text>") -> Case:
+def case_from_text(text: str, source: str = "<text>", registry: dict | None = None) -> Case:
     """Read a case from YAML text."""
     data, node = parse_yaml(text, source)
     if data is None:
@@ -161,13 +161,34 @@ def case_from_text(text: str, source: str = "<text>") -> Case:
                 )
             ],
         )
-    return case_from_data(data, source, node)
+    return case_from_data(data, source, node, registry)
 
 
 def case_from_data(
-    data: dict[str, Any], source: str = "<data>", node: yaml.Node | None = None
+    data: dict[str, Any],
+    source: str = "<data>",
+    node: yaml.Node | None = None,
+    registry: dict | None = None,
 ) -> Case:
-    """Validate a mapping as a case, turning pydantic's errors into Problems."""
+    """Validate a mapping as a case (migrating an older schema first), errors as Problems.
+
+    ``registry`` replaces the product's migration steps (tests prove the mechanism with it).
+    """
+    from workup import model
+    from workup.migrations import MigrationError, migrate, schema_of
+
+    if not isinstance(data, dict):
+        raise CaseFileError(source, [Problem("", "expected a mapping of keys")])
+    try:
+        version = schema_of(data)
+    except MigrationError:
+        version = None  # the model's validation names the fault with its line
+    if version is not None and version < model.SCHEMA_VERSION:
+        try:
+            data = migrate(data, registry=registry)
+        except MigrationError as exc:
+            raise CaseFileError(source, [Problem("schema", str(exc))]) from None
+        node = None  # line numbers refer to the old layout
     units = data.get("units")
     system = (
         UnitSystem(units) if isinstance(units, str) and units in UnitSystem.__members__ else None

@@ -19,10 +19,9 @@ from datetime import UTC, datetime
 from pathlib import Path
 from typing import Any
 
-from workup.caseio import CaseFileError, case_to_data
+from workup.caseio import CaseFileError, case_from_bytes, case_from_data, case_to_data
 from workup.equivalence import same_case
 from workup.locking import current_holder, current_user
-from workup.migrations import case_from_bytes_migrated, case_from_data_migrated
 from workup.model import Case
 from workup.storage import Fingerprint, atomic_write_text, make_private_dir, read_with_fingerprint
 
@@ -95,7 +94,7 @@ class Draft:
         if now is None:
             return False
         try:
-            return same_case(case_from_bytes_migrated(now[0], str(self.case_path)), self.case)
+            return same_case(case_from_bytes(now[0], str(self.case_path)), self.case)
         except CaseFileError:
             return False
 
@@ -140,7 +139,7 @@ def read_draft(path: str | Path) -> Draft:
             return Draft(
                 path, case_path, None, base, written, owner, "the draft's checksum is wrong"
             )
-        case = case_from_data_migrated(data, str(path))
+        case = case_from_data(data, str(path))
     except (CaseFileError, ValueError, TypeError, RecursionError) as exc:
         return Draft(path, case_path, None, base, written, owner, f"the draft's case: {exc}")
     return Draft(path, case_path, case, base, written, owner)

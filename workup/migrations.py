@@ -13,8 +13,6 @@ from collections.abc import Callable
 from typing import Any
 
 from workup import model
-from workup.caseio import MAX_FILE_BYTES, CaseFileError, Problem, case_from_data, parse_yaml
-from workup.model import Case
 
 Migration = Callable[[dict[str, Any]], dict[str, Any]]
 """One step: the data of schema n (a private copy, free to change) to the data of schema n + 1."""
@@ -81,78 +79,3 @@ def migrate(
             )
         version = got
     return out
-
-
-def case_from_text_migrated(
-    text: str, source: str = "<text>", registry: dict[int, Migration] | None = None
-) -> Case:
-    """Like :func:`workup.caseio.case_from_text`, migrating older schemas before validation."""
-    data, node = parse_yaml(text, source)
-    if data is None:
-        raise CaseFileError(
-            source, [Problem("", "the file is empty; a case needs at least a label")]
-        )
-    if not isinstance(data, dict):
-        raise CaseFileError(
-            source,
-            [
-                Problem(
-                    "", f"expected a mapping of keys (label:, draws:…), got {type(data).__name__}"
-                )
-            ],
-        )
-    try:
-        version = schema_of(data)
-    except MigrationError:
-        version = None  # the model's validation names the fault with its line
-    if version is not None and version < model.SCHEMA_VERSION:
-        try:
-            data = migrate(data, registry=registry)
-        except MigrationError as exc:
-            raise CaseFileError(source, [Problem("schema", str(exc))]) from None
-        node = None  # line numbers refer to the old layout
-    return _validate(data, source, node)
-
-
-def _validate(data: dict[str, Any], source: str, node: Any = None) -> Case:
-    try:
-        return case_from_data(data, source, node)
-    except OverflowError:
-        # quantity.read_value turns a huge integer into a float and overflows; until the
-        # validator reports it, say so here rather than let the app crash.
-        raise CaseFileError(
-            source, [Problem("", "a number in the file is too large to be a measurement")]
-        ) from None
-
-
-def case_from_bytes_migrated(
-    raw: bytes, source: str = "<bytes>", registry: dict[int, Migration] | None = None
-) -> Case:
-    """Like :func:`workup.caseio.case_from_bytes`, migrating older schemas before validation."""
-    if len(raw) > MAX_FILE_BYTES:
-        raise CaseFileError(source, [Problem("", f"{len(raw)} bytes is too large for a case file")])
-    try:
-        text = raw.decode("utf-8-sig")
-    except UnicodeDecodeError as exc:
-        raise CaseFileError(
-            source, [Problem("", f"not UTF-8 text (byte {exc.start}); is this a case file?")]
-        ) from None
-    return case_from_text_migrated(text, source, registry)
-
-
-def case_from_data_migrated(
-    data: Any, source: str = "<data>", registry: dict[int, Migration] | None = None
-) -> Case:
-    """Validate plain data (e.g. a draft's) as a case, migrating an older schema first."""
-    if not isinstance(data, dict):
-        raise CaseFileError(source, [Problem("", "expected a mapping of keys")])
-    try:
-        version = schema_of(data)
-    except MigrationError:
-        version = None
-    if version is not None and version < model.SCHEMA_VERSION:
-        try:
-            data = migrate(data, registry=registry)
-        except MigrationError as exc:
-            raise CaseFileError(source, [Problem("schema", str(exc))]) from None
-    return _validate(data, source)

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 import math
 import re
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from workup.analytes import KETONE_GRADES, Analyte, UnitSystem
 
@@ -30,7 +30,7 @@ class Measurement:
     """The unit it was read in (the canonical symbol of that unit)."""
     canonical: float
     """The same quantity in the analyte's canonical unit."""
-    bare: bool = False
+    bare: bool = field(default=False, compare=False)
     """True when the file wrote a bare number (its unit came from the analyte or ``units:``)."""
     word: str | None = None
     """For dipstick analytes, the grade word as written."""
@@ -64,7 +64,10 @@ def read_value(analyte: Analyte, raw: object, system: UnitSystem | None) -> Meas
     unit = None
     bare = False
     if isinstance(raw, int | float):
-        number = float(raw)
+        try:
+            number = float(raw)
+        except OverflowError:
+            raise ValueProblem(f"{str(raw)[:12]}… is too large to be a measurement") from None
         bare = True
     elif isinstance(raw, str):
         m = _NUMBER_UNIT.match(raw)

@@ -19,7 +19,7 @@ import difflib
 from dataclasses import dataclass
 from pathlib import Path
 
-from workup.caseio import CaseFileError, Problem, dump_case
+from workup.caseio import CaseFileError, Problem, case_from_bytes, dump_case
 from workup.equivalence import same_case
 from workup.journal import (
     Draft,
@@ -32,7 +32,6 @@ from workup.journal import (
     write_draft,
 )
 from workup.locking import CaseLock, CaseLockedError, LockInfo, current_holder
-from workup.migrations import case_from_bytes_migrated
 from workup.model import Case
 from workup.privacy import PrivacyWarning, check_folder
 from workup.roundtrip import RoundTripError, roundtrip_text
@@ -147,7 +146,7 @@ class CaseSession:
             if got is None:
                 raise CaseFileError(str(path), [Problem("", "no such file")])
             raw, base = got
-            case = case_from_bytes_migrated(raw, str(path))
+            case = case_from_bytes(raw, str(path))
         except BaseException:
             if lock is not None:
                 lock.release()
@@ -187,7 +186,7 @@ class CaseSession:
             disk_case: Case | None = None
             if got is not None:
                 try:
-                    disk_case = case_from_bytes_migrated(got[0], str(path))
+                    disk_case = case_from_bytes(got[0], str(path))
                 except CaseFileError:
                     disk_case = None
         except BaseException:

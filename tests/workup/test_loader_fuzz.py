@@ -21,7 +21,6 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from workup.caseio import CaseFileError, case_from_bytes, case_from_text
-from workup.migrations import case_from_bytes_migrated
 from workup.model import Case
 
 CASES = sorted((Path(__file__).resolve().parents[2] / "cases").glob("*.yaml"))
@@ -35,26 +34,15 @@ FUZZ = settings(
 )
 
 
-KNOWN_ESCAPES: tuple[type[BaseException], ...] = (OverflowError,)
-"""Known bug in workup.quantity (not fixed here): a huge integer panel value raises OverflowError
-from caseio's loaders. Pinned by test_huge_integer_value_is_a_case_file_error (strict xfail);
-when that passes, empty this tuple. The migrating loader the app uses already catches it."""
-
-
 def _check(raw: bytes | str) -> None:
     loaders = (
-        (case_from_bytes, case_from_bytes_migrated)
+        (case_from_bytes,)
         if isinstance(raw, bytes)
-        else (case_from_text, lambda t: case_from_bytes_migrated(t.encode("utf-8", "replace")))
+        else (case_from_text, lambda t: case_from_bytes(t.encode("utf-8", "replace")))
     )
     for load in loaders:
         try:
             got = load(raw)
-        except KNOWN_ESCAPES:
-            if load in (case_from_bytes, case_from_text):
-                RUNS["known_bug_hits"] += 1
-                continue
-            raise
         except CaseFileError as exc:
             assert str(exc)  # a message the user can read
             assert all(p.message for p in exc.problems)
@@ -265,19 +253,10 @@ def test_bytes_that_are_not_utf8_or_too_large():
 HUGE = "label: x\ndraws: [{label: a, serum: {sodium: " + "9" * 400 + "}}]\n"
 
 
-@pytest.mark.xfail(
-    strict=True,
-    raises=OverflowError,
-    reason="workup.quantity.read_value: float() of a huge int raises OverflowError (owner to fix)",
-)
 def test_huge_integer_value_is_a_case_file_error():
-    with pytest.raises(CaseFileError):
-        case_from_text(HUGE)
-
-
-def test_the_migrating_loader_reports_a_huge_integer_value():
+    # Found by this fuzzing: float() of a 400-digit integer overflowed out of the loader.
     with pytest.raises(CaseFileError, match="too large"):
-        case_from_bytes_migrated(HUGE.encode())
+        case_from_text(HUGE)
 
 
 def teardown_module(module):

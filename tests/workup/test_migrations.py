@@ -11,13 +11,16 @@ from pathlib import Path
 import pytest
 
 from workup import model
-from workup.caseio import CaseFileError, case_from_text, load_case
+from workup.caseio import (
+    CaseFileError,
+    case_from_bytes,
+    case_from_data,
+    case_from_text,
+    load_case,
+)
 from workup.migrations import (
     MIGRATIONS,
     MigrationError,
-    case_from_bytes_migrated,
-    case_from_data_migrated,
-    case_from_text_migrated,
     migrate,
     register,
     schema_of,
@@ -54,12 +57,12 @@ def test_the_product_is_at_schema_1_with_no_steps():
 @pytest.mark.parametrize("path", CASES, ids=lambda p: p.name)
 def test_every_schema_1_demo_case_opens_unchanged(path):
     text = path.read_text()
-    assert case_from_text_migrated(text, str(path)) == case_from_text(text)
+    assert case_from_text(text, str(path)) == case_from_text(text)
 
 
 def test_a_missing_schema_means_1():
     assert schema_of({"label": "x"}) == 1
-    assert case_from_text_migrated("label: x\n").schema_version == 1
+    assert case_from_text("label: x\n").schema_version == 1
 
 
 @pytest.mark.parametrize("bad", [0, -1, "1", True, 1.5, None])
@@ -71,12 +74,12 @@ def test_migration_refuses_a_schema_that_is_not_a_whole_number(bad):
 @pytest.mark.parametrize("bad", [0, -1, 1.5, None])
 def test_the_loader_refuses_a_bad_schema_with_a_case_file_error(bad):
     with pytest.raises(CaseFileError, match="schema"):
-        case_from_text_migrated(f"schema: {bad!r}\nlabel: x\n".replace("None", "null"))
+        case_from_text(f"schema: {bad!r}\nlabel: x\n".replace("None", "null"))
 
 
 def test_a_newer_schema_asks_for_an_upgrade():
     with pytest.raises(CaseFileError, match="upgrade workup"):
-        case_from_text_migrated("schema: 2\nlabel: x\n")
+        case_from_text("schema: 2\nlabel: x\n")
     with pytest.raises(MigrationError, match="upgrade"):
         migrate({"schema": 3}, target=2)
 
@@ -85,14 +88,14 @@ def test_a_test_step_1_to_2_runs_before_validation(monkeypatch):
     steps: dict = {}
     register(1, steps)(_kg_weights)
     monkeypatch.setattr(model, "SCHEMA_VERSION", 2)
-    case = case_from_text_migrated(OLD, "old.yaml", registry=steps)
+    case = case_from_text(OLD, "old.yaml", registry=steps)
     assert case.schema_version == 2
     assert case.patient.weight == "69.9 kg"
     assert case.patient.age == 50 and case.draws[0].serum.sodium.value == 140
-    same = case_from_bytes_migrated(OLD.encode(), "old.yaml", registry=steps)
+    same = case_from_bytes(OLD.encode(), "old.yaml", registry=steps)
     assert same == case
     data = {"schema": 1, "label": "d", "patient": {"weight": "10 lb"}}
-    assert case_from_data_migrated(data, registry=steps).patient.weight == "4.5 kg"
+    assert case_from_data(data, registry=steps).patient.weight == "4.5 kg"
     assert data["patient"]["weight"] == "10 lb"  # the input is not changed
 
 
@@ -115,7 +118,7 @@ def test_steps_chain_and_must_each_advance_one_version():
 def test_a_missing_step_is_a_clean_case_file_error(monkeypatch):
     monkeypatch.setattr(model, "SCHEMA_VERSION", 2)
     with pytest.raises(CaseFileError, match="no migration from schema 1"):
-        case_from_text_migrated(OLD, registry={})
+        case_from_text(OLD, registry={})
 
 
 def test_load_case_of_a_demo_file_is_schema_1():
