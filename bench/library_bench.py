@@ -136,6 +136,39 @@ def _timed(fn, *args: Any, **kwargs: Any) -> tuple[float, Any]:
     return time.perf_counter() - t0, out
 
 
+def per_file_costs(folder: Path, names: list[str]) -> dict[str, float]:
+    """Milliseconds per file, in one process, of each step of indexing ``names``.
+
+    Separates what the index does itself (reading and validating, summarizing, storing) from the
+    assessment it calls (the calculators and the pattern ranking), so a slow cold build can be
+    traced to its cause.
+    """
+    from workup import library as lib
+    from workup.assess import assess
+
+    paths = [folder / n for n in names]
+    n = max(1, len(paths))
+    t_yaml = yaml_baseline(paths)
+    t0 = time.perf_counter()
+    cases = [lib._read_case(p) for p in paths]
+    t_read = time.perf_counter() - t0
+    t0 = time.perf_counter()
+    for c in cases:
+        assess(c, None, {})
+    t_assess = time.perf_counter() - t0
+    t0 = time.perf_counter()
+    for name in names:
+        st = (folder / name).stat()
+        lib.summarize_file(folder, name, st.st_size, st.st_mtime_ns)
+    t_all = time.perf_counter() - t0
+    return {
+        "yaml_parse_ms": round(1000 * t_yaml / n, 3),
+        "read_and_validate_ms": round(1000 * t_read / n, 3),
+        "assess_ms": round(1000 * t_assess / n, 3),
+        "whole_row_ms": round(1000 * t_all / n, 3),
+    }
+
+
 def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
     """One result row per library size: baseline, cold, warm and one-changed seconds and ratios."""
     from workup.library import list_library
@@ -167,6 +200,9 @@ def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
                     "one_changed_s": round(one, 3),
                     "target_one_changed_s": 1.0,
                     "listed_after_change": len(after),
+                    "per_file_one_process": per_file_costs(
+                        folder, [p.name for p in paths[: min(n, 500)]]
+                    ),
                 }
             )
     return rows

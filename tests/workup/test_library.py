@@ -87,6 +87,20 @@ def test_lean_reading_agrees_with_the_checking_loader(library: Path) -> None:
         assert lib._read_case(path) == load_case(path), path.name
 
 
+def test_plain_case_files_take_the_one_pass_path(library: Path, monkeypatch) -> None:
+    from workup import caseio
+
+    def refuse(path: object) -> None:
+        raise AssertionError(f"the checking loader was used for {path}")
+
+    monkeypatch.setattr(caseio, "load_case", refuse)
+    case = lib._read_case(library / "case-00003.yaml")
+    assert case.label.endswith("#00003")
+    with pytest.raises(AssertionError, match="checking loader"):
+        (library / "odd.yaml").write_text("schema: 1\nlabel: A & B\n", encoding="utf-8")
+        lib._read_case(library / "odd.yaml")
+
+
 def test_second_listing_reads_nothing_and_a_changed_file_is_reread(
     library: Path, tmp_path: Path
 ) -> None:
