@@ -55,7 +55,7 @@ class Plan:
     """Seconds of idle output measured per run."""
 
 
-FULL = Plan(pairs=8, sweeps=300, library_reps=3, memory_reps=3, idle_window=2.0)
+FULL = Plan(pairs=8, sweeps=300, library_reps=3, memory_reps=3, idle_window=1.5)
 QUICK = Plan(pairs=3, sweeps=60, library_reps=1, memory_reps=2, idle_window=1.0)
 
 # xterm's bytes for the keys the harness may need (TERM=xterm-256color).
