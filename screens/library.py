@@ -131,7 +131,9 @@ class LibraryScreen(Screen):
     """
 
     BINDINGS = [
-        Binding("enter", "open", "Open", show=True),
+        # Priority, so the footer shows it over the table's own Enter; in the search line
+        # Enter still means "done searching" (see action_open).
+        Binding("enter", "open", "Open", show=True, priority=True),
         Binding("slash", "search", "Search"),
         Binding("n", "new", "New case"),
         Binding("s", "sort", "Sort"),
@@ -290,7 +292,13 @@ class LibraryScreen(Screen):
         return self.shown[table.cursor_row]
 
     def action_open(self) -> None:
-        """Open the highlighted case (the app handles OpenCase)."""
+        """Open the highlighted case (the app handles OpenCase); in the search line, search."""
+        box = self.query_one("#lib-search", Input)
+        if self.focused is box:
+            self.query_text = box.value
+            self.apply_search()
+            self.query_one(DataTable).focus()
+            return
         e = self.current()
         if e is not None:
             self.post_message(OpenCase(e.path))

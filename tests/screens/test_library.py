@@ -89,6 +89,22 @@ async def test_filter_as_you_type(folder: Path) -> None:
         assert screen.focused is screen.query_one(DataTable)
 
 
+async def test_enter_in_the_search_line_searches_and_does_not_open(folder: Path) -> None:
+    app = Host(folder)
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("slash")
+        screen.query_one("#lib-search", Input).value = "pattern:proximal"
+        await pilot.press("enter")
+        await pilot.pause()
+        assert app.opened == []
+        assert _names(screen) == ["proximal-rta-fanconi.yaml"]
+        assert screen.focused is screen.query_one(DataTable)
+        await pilot.press("enter")
+        await pilot.pause()
+        assert app.opened == [folder / "proximal-rta-fanconi.yaml"]
+
+
 async def test_conditions_and_bad_queries(folder: Path) -> None:
     app = Host(folder)
     async with app.run_test(size=(80, 24)) as pilot:
