@@ -244,7 +244,8 @@ def library_run(cases_dir: Path, env: dict[str, str], cwd: Path, timeout: float 
     )
 
 
-_GENERATED_LABEL = re.compile(rb"#\d{5}")
+# A generated case shows as its label ("... #00042") or its file name ("case-00042.yaml").
+_GENERATED_LABEL = re.compile(rb"#\d{5}|case-\d{5}")
 _LIBRARY_ERROR = re.compile(rb"cannot read the library[^\x1b]*")
 
 

@@ -80,3 +80,15 @@ def test_library_ready_needs_a_listed_case_or_reports_the_error():
     assert library_ready(b"\x1b[5;3HDemo B #00042\x1b[0m") == "listed"
     said = library_ready(b"\x1b[3;1Hcannot read the library: disk gone\x1b[0m")
     assert said == "error: cannot read the library: disk gone"
+
+
+def test_docs_section_names_the_machine_and_carries_the_table():
+    machine = {
+        "date_utc": "2026-12-01 22:00", "nproc": 2, "cpu_model": "Some CPU", "platform": "Linux",
+        "python": "3.11.7", "textual": "8.2.8", "pyyaml": "6.0.4", "pydantic": "2.14.4",
+        "load_before": [1.5, 1.0, 0.5], "load_after": [2.0, 1.0, 0.5], "run_seconds": 150.0,
+    }  # fmt: skip
+    text = report.section({"machine": machine, "plan": {"pairs": 8}, "table": "| T |"})
+    assert text.startswith(report.START) and text.endswith(report.END)
+    assert "2 CPUs, Some CPU; Python 3.11.7, Textual 8.2.8" in text
+    assert "load average before 1.5, after 2.0" in text and "| T |" in text
