@@ -158,6 +158,8 @@ class LibraryScreen(Screen):
         self._timer: Timer | None = None
         self._preview_for: Path | None = None
         self.narrow = False
+        self._loaded_once = False
+        self._cursor_name: str | None = None
 
     # ------------------------------------------------------------ layout
 
@@ -207,8 +209,15 @@ class LibraryScreen(Screen):
             return
         self.app.call_from_thread(self._loaded, entries)
 
+    def on_screen_resume(self, event: events.ScreenResume) -> None:
+        # Back from a case that may have been saved: re-read what changed (cheap when nothing did).
+        if self._loaded_once:
+            self.load()
+
     def _loaded(self, entries: list[LibraryEntry]) -> None:
+        self._loaded_once = True
         self._draws = None
+        self._preview_for = None
         self.entries = sort_entries(entries, self.sort_key, self.reverse)
         self.apply_search()
 
@@ -256,11 +265,15 @@ class LibraryScreen(Screen):
 
     def _fill(self) -> None:
         table = self.query_one(DataTable)
+        before = self._cursor_name
         table.clear()
         table.add_rows([_row(e, self.narrow) for e in self.shown])
         if self.shown:
-            table.move_cursor(row=0)
-            self._preview(self.shown[0])
+            # Stay on the case that was highlighted, if it is still shown.
+            row = next((i for i, e in enumerate(self.shown) if e.name == before), 0)
+            table.move_cursor(row=row)
+            self._cursor_name = self.shown[row].name
+            self._preview(self.shown[row])
         else:
             self.query_one("#lib-preview", Static).update(
                 Text("No case matches the search." if self.entries else "No case files here yet.")
@@ -270,6 +283,7 @@ class LibraryScreen(Screen):
 
     def on_data_table_row_highlighted(self, event: DataTable.RowHighlighted) -> None:
         if 0 <= event.cursor_row < len(self.shown):
+            self._cursor_name = self.shown[event.cursor_row].name
             self._preview(self.shown[event.cursor_row])
 
     def _preview(self, e: LibraryEntry) -> None:
@@ -348,18 +362,24 @@ class LibraryScreen(Screen):
         self._status("reading the library…")
         self.load()
 
-    def _open_case_view(self, name: str) -> None:
+    def current_case(self) -> Any:
+        """The highlighted case loaded from its file, or None (with a notice) when it cannot be."""
         from workup.caseio import CaseFileError, load_case
 
         e = self.current()
         if e is None:
-            return
+            return None
         try:
-            case = load_case(e.path)
+            return load_case(e.path)
         except CaseFileError as exc:
             self.notify(
                 exc.problems[0].format(e.name), title="Cannot read the case", severity="error"
             )
+            return None
+
+    def _open_case_view(self, name: str) -> None:
+        case = self.current_case()
+        if case is None:
             return
         import screens.trends as trends
 

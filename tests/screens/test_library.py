@@ -143,8 +143,10 @@ async def test_sort_and_preview(folder: Path) -> None:
         labels = [e.label for e in screen.shown if e.ok]
         assert labels == sorted(labels, key=str.lower)
         assert not screen.shown[-1].ok  # a broken file sorts last
+        current = screen.current()
+        assert current is not None and current.name == "ckd-acidosis.yaml"  # the cursor stays put
         preview = str(screen.query_one("#lib-preview", Static).content)
-        assert screen.shown[0].label in preview
+        assert current.label in preview
         # Every index number in the preview is followed by its status word.
         for line in preview.splitlines():
             if line.startswith((" + ", " ! ", " x ")):
@@ -170,6 +172,21 @@ async def test_trends_and_compare_open_from_the_library(folder: Path) -> None:
         await pilot.press("escape", "escape")
         await pilot.pause()
         assert app.screen is screen
+
+
+async def test_coming_back_to_the_library_rereads_changed_files(folder: Path) -> None:
+    app = Host(folder)
+    async with app.run_test(size=(80, 24)) as pilot:
+        screen = await _ready(pilot)
+        await pilot.press("down", "down")
+        await app.push_screen(TrendsScreen(screen.current_case()))
+        target = folder / "gi-loss-diarrhea.yaml"
+        text = target.read_text(encoding="utf-8")
+        target.write_text(text.replace("Demo A - ", "Demo A (seen again) - "), encoding="utf-8")
+        app.pop_screen()
+        await _ready(pilot)
+        assert any(e.label.startswith("Demo A (seen again)") for e in screen.entries)
+        assert screen.current().name == "gi-loss-diarrhea.yaml"
 
 
 def test_help_lists_the_search_syntax(folder: Path) -> None:
