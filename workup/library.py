@@ -553,7 +553,7 @@ def scan_folder(folder: Path) -> dict[str, tuple[int, int]]:
                 if e.name.startswith("."):
                     continue
                 try:
-                    if e.is_dir():
+                    if e.is_dir(follow_symlinks=False):  # a linked folder could loop
                         stack.append((prefix + e.name + "/", e.path))
                     elif e.name.endswith(CASE_SUFFIXES) and e.is_file():
                         st = e.stat()

@@ -14,6 +14,7 @@ import contextlib
 import functools
 import hashlib
 import json
+import os
 import sqlite3
 from dataclasses import dataclass
 from pathlib import Path
@@ -93,6 +94,16 @@ def remove_index(path: Path) -> None:
             p.unlink()
 
 
+def _private_file(path: Path) -> None:
+    """Create the index file readable by its owner only: it holds case labels and notes.
+
+    SQLite gives its -wal and -shm files the same permissions as the database file.
+    """
+    path.parent.mkdir(mode=0o700, parents=True, exist_ok=True)
+    if not path.exists():
+        os.close(os.open(path, os.O_CREAT | os.O_WRONLY, 0o600))
+
+
 def _connect(path: Path | str) -> sqlite3.Connection:
     conn = sqlite3.connect(str(path), timeout=10.0, isolation_level=None)
     conn.execute("PRAGMA journal_mode=WAL")
@@ -162,7 +173,7 @@ class LibraryIndex:
         for _attempt in range(2):
             conn = None
             try:
-                path.parent.mkdir(parents=True, exist_ok=True)
+                _private_file(path)
                 conn = _connect(path)
                 rebuilt = not _current(conn, stamp)
                 if rebuilt:

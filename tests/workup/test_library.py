@@ -192,6 +192,19 @@ def test_default_cache_lives_under_xdg_cache_home(library: Path, tmp_path: Path)
     assert cache_path(library, {"anion_gap_upper": 12.0}) != path
 
 
+def test_the_index_is_private_to_its_owner(library: Path, tmp_path: Path) -> None:
+    cache = tmp_path / "private" / "index.sqlite"
+    list_library(library, cache, workers=1)
+    for p in cache.parent.iterdir():
+        assert p.stat().st_mode & 0o077 == 0, p.name  # holds labels and notes
+    assert cache.parent.stat().st_mode & 0o077 == 0
+
+
+def test_a_folder_link_that_loops_is_not_followed(library: Path, tmp_path: Path) -> None:
+    (library / "loop").symlink_to(library, target_is_directory=True)
+    assert len(list_library(library, _cache(tmp_path), workers=1)) == 30
+
+
 def test_an_unwritable_cache_falls_back_to_memory(library: Path, tmp_path: Path) -> None:
     blocker = tmp_path / "not-a-folder"
     blocker.write_text("x", encoding="utf-8")
