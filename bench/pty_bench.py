@@ -123,6 +123,8 @@ class RunResult:
     """The last words on screen before quitting, escape sequences removed."""
     ready: str = ""
     """What the readiness check said ("" when there was none)."""
+    exit_note: str = ""
+    """Empty when the program quit by itself on Ctrl+Q; otherwise what happened."""
 
 
 def one_run(
@@ -172,14 +174,19 @@ def one_run(
             sent = s.send(DIGIT)
             last = s.wait_quiet(sent, quiet, 10)
             key_bytes = bytes_between(s.chunks, sent, last)
-        s.quit(then=quit_keys or [])
+        exited = s.quit(then=quit_keys or [])
     except BaseException:
         s.kill()
         raise
-    if s.exit_status != 0:
+    exit_note = ""
+    if not exited:
+        # What was measured before Ctrl+Q stands; the runner reports how many runs hung.
+        exit_note = f"still running 10 s after Ctrl+Q, killed; screen: {screen_text(s.output())}"
+    elif s.exit_status != 0:
         code = os.waitstatus_to_exitcode(s.exit_status or 0)
-        how = f"was killed by signal {-code}" if code < 0 else f"exited with code {code}"
-        raise RuntimeError(f"{Path(argv[0]).name} {how} after Ctrl+Q: {screen_text(s.output())}")
+        raise RuntimeError(
+            f"{Path(argv[0]).name} exited with code {code} after Ctrl+Q: {screen_text(s.output())}"
+        )
     return RunResult(
         settled_s=settled,
         first_frame_s=first,
@@ -189,6 +196,7 @@ def one_run(
         max_rss_mib=(s.max_rss_kib or 0) / 1024,
         screen=screen_text(s.output(), 400),
         ready=verdict,
+        exit_note=exit_note,
     )
 
 

@@ -170,11 +170,16 @@ def terminal_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]
         app_quit_keys=[key_bytes(k) for k in APP_QUIT_KEYS],
         idle_window=plan.idle_window,
     )
+    hung = [r.exit_note for r in app + base if r.exit_note]
+    if hung:
+        log(f"[bench] {len(hung)} runs did not quit on Ctrl+Q: {hung[0]}")
     name = f"bare form, {form_widgets} widgets"
     size_note = (
         f"The app's first screen has {app_probe['widgets']} widgets ({app_probe['screen']}); "
         f"the bare form has {form_widgets}."
     )
+    if hung:
+        size_note += f" {len(hung)} of {len(app) + len(base)} runs had to be killed after Ctrl+Q."
     key_note = (
         f"Keys before the digit: {', '.join(APP_KEYS) or 'none'}; in the headless check the digit "
         f"changed {'; '.join(app_probe['digit_changed'])} (the bare form: an empty input)."
@@ -375,6 +380,8 @@ def memory_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
     if failed:
         raise RuntimeError(f"the library screen did not list the cases: {failed[0]}")
     rss = [r.max_rss_mib for r in runs]
+    hung = sum(1 for r in runs if r.exit_note)
+    kill_note = f" {hung} of {len(runs)} runs had to be killed after Ctrl+Q." if hung else ""
     rows = [
         Row(
             MEMORY_FIGURES[0][0],
@@ -382,7 +389,7 @@ def memory_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
             value=summarize(rss),
             target=Target("value", "<", 150.0, statistic="high"),
             note="Judged on the largest run (peak memory is a worst case); the first run builds "
-            "the index from nothing.",
+            "the index from nothing." + kill_note,
             extra={"samples": rss},
         ),
         Row(MEMORY_FIGURES[1][0], "s", value=summarize([runs[0].settled_s])),
