@@ -327,6 +327,7 @@ def library_rows_from(samples: list[dict[str, Any]], sizes: tuple[int, ...]) -> 
                 note=note,
             )
         )
+        rows[-1].extra["library_bench_rows"] = mine  # everything it reported, breakdowns too
         rows.append(
             _paired_row(
                 figs[1][0],
