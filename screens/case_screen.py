@@ -33,6 +33,8 @@ from screens.davenport import DavenportView, band_rules_text
 from screens.dialogs import AskScreen, ChoiceScreen
 from screens.entry import (
     SECTIONS,
+    EntryInput,
+    EntrySelect,
     FieldReading,
     ValueField,
     default_unit,
@@ -67,11 +69,11 @@ def _same(a: Measurement | None, b: Measurement | None) -> bool:
 
 
 def _input(value: str, id_: str, max_length: int) -> Input:
-    return Input(value, id=id_, compact=True, max_length=max_length)
+    return EntryInput(value, id=id_, compact=True, max_length=max_length)
 
 
 def _select(options: list[tuple[str, Any]], value: Any, id_: str) -> Select:
-    return Select(options, value=value, id=id_, allow_blank=False, compact=True)
+    return EntrySelect(options, value=value, id=id_, allow_blank=False, compact=True)
 
 
 def _meta(name: str, widget: Any, state_id: str) -> Horizontal:
@@ -329,11 +331,6 @@ class CaseScreen(Screen[None]):
             self._recompute()
         if field is self._focused:
             self._update_help()
-
-    @on(Input.Submitted)
-    def _next_on_enter(self, event: Input.Submitted) -> None:
-        event.stop()
-        self.focus_next()
 
     @on(Input.Changed, "#meta-label")
     def _label_changed(self, event: Input.Changed) -> None:

@@ -9,9 +9,10 @@ from __future__ import annotations
 import re
 from dataclasses import dataclass
 
+from textual import events
 from textual.app import ComposeResult
 from textual.containers import Horizontal
-from textual.widgets import Input, Static
+from textual.widgets import Input, Select, Static
 
 from workup.analytes import Analyte, Panel, UnitSystem, analyte
 from workup.quantity import Measurement, ValueProblem, read_value, unusual
@@ -132,6 +133,48 @@ def shown_text(m: Measurement) -> str:
     return str(int(v)) if float(v).is_integer() and abs(v) < 1e15 else f"{v:g}"
 
 
+class FollowFocus:
+    """Tab (and, where asked, Enter) move on at once, and typed-ahead keys follow the focus.
+
+    Textual hands every key of a burst to the widget focused when the burst arrived, and moves
+    the focus only after Enter or Tab has travelled up to the screen. Keys typed quickly, or
+    bunched by a slow SSH link, would land in the field just left. Here the focus moves while
+    the key itself is handled, and a key that reaches this widget after the focus has left is
+    passed on to the widget that has it now.
+    """
+
+    ENTER_MOVES = True
+
+    async def _on_key(self, event: events.Key) -> None:
+        screen = self.screen  # type: ignore[attr-defined]
+        focused = screen.focused
+        if focused is not None and focused is not self and self not in focused.ancestors:
+            event.stop()
+            event.prevent_default()
+            focused._forward_event(events.Key(event.key, event.character))
+            return
+        if focused is not self:
+            return
+        moves = {"tab": screen.focus_next, "shift+tab": screen.focus_previous}
+        if self.ENTER_MOVES:
+            moves["enter"] = screen.focus_next
+        move = moves.get(event.key)
+        if move is not None:
+            event.stop()
+            event.prevent_default()
+            move()
+
+
+class EntryInput(FollowFocus, Input):
+    """A form input: Enter and Tab go to the next field, even in a burst of keys."""
+
+
+class EntrySelect(FollowFocus, Select):
+    """A form choice: Tab goes on even in a burst of keys; Enter still opens the list."""
+
+    ENTER_MOVES = False
+
+
 class ValueField(Horizontal):
     """One analyte: its name, an input, the unit it is read in and the core's verdict."""
 
@@ -145,7 +188,7 @@ class ValueField(Horizontal):
     def compose(self) -> ComposeResult:
         name = f"{PANEL_WORD[self.panel]} {self.analyte.name}"
         yield Static(name, classes="field-name")
-        yield Input(
+        yield EntryInput(
             id=f"in-{field_id(self.panel, self.key)}",
             classes="field-input",
             compact=True,

@@ -80,6 +80,23 @@ async def test_enter_a_case_by_keys_and_see_its_findings(tmp_path: Path) -> None
         assert "UNSAVED" in str(screen.query_one("#titlebar").render())
 
 
+async def test_keys_arriving_in_one_burst_stay_in_their_fields(tmp_path: Path) -> None:
+    # Over a slow SSH link keystrokes arrive bunched: all queued before any is handled.
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        screen = app.screen
+        keys = [*"140", "enter", *"4.1", "tab", *"104", "shift+tab", "end", *"5"]
+        for k in keys:
+            char = k if len(k) == 1 else ("\r" if k == "enter" else None)
+            app.post_message(events.Key(k, char))
+        await pilot.pause()
+        assert _field(screen, "serum-sodium").input.value == "140"
+        assert _field(screen, "serum-potassium").input.value == "4.15"
+        assert _field(screen, "serum-chloride").input.value == "104"
+
+
 async def test_impossible_value_is_refused_inline_and_nothing_crashes(demo: Path) -> None:
     app = _app(demo.parent, demo)
     async with app.run_test(size=SIZE) as pilot:
