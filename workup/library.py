@@ -306,9 +306,21 @@ def _usual_ranges() -> dict[tuple[str, str], tuple[float, float]]:
     return {(p.value, k): a.usual for p, keys in CATALOGUE.items() for k, a in keys.items()}
 
 
-def _loading_in(text: str) -> bool:
+# Words that name each loading test in a suggested test's id or text.
+_LOADING_WORDS = {
+    "bicarbonate_loading": ("bicarbonate_loading", "bicarbonate loading"),
+    "furosemide_fludrocortisone": ("furosemide",),
+    "ammonium_chloride": ("ammonium_chloride", "ammonium chloride", "nh4cl"),
+}
+
+
+def _loading_kind(text: str) -> str | None:
+    """The loading test a suggested test's id and text name, if any."""
     t = text.lower()
-    return "loading" in t or "furosemide" in t or "ammonium chloride" in t
+    for kind, words in _LOADING_WORDS.items():
+        if any(w in t for w in words):
+            return kind
+    return None
 
 
 def summarize_case(
@@ -379,10 +391,8 @@ def summarize_case(
         if a.next_tests:
             first = a.next_tests[0]
             done = {d.during.value for d in draws if d.during is not None}
-            loading = [
-                t for t in a.next_tests
-                if _loading_in(f"{t.id} {t.text}") and not any(x in t.id for x in done)
-            ]  # fmt: skip
+            kinds = [_loading_kind(f"{t.id} {t.text}") for t in a.next_tests]
+            loading = [k for k in kinds if k is not None and k not in done]
             out.update(pending=True, next_test=first.text, loading_expected=bool(loading))
         if a.ranking_notes:
             out["ranking_note"] = a.ranking_notes[0]

@@ -290,6 +290,42 @@ def test_summary_carries_the_assessment(cases_dir: Path, tmp_path: Path) -> None
     assert base["serum.potassium"] == (2.9, "measured")
 
 
+@pytest.mark.parametrize(
+    ("text", "kind"),
+    [
+        (
+            "bicarbonate_loading_fehco3 Bicarbonate loading to plasma HCO3 ≥ 20",
+            "bicarbonate_loading",
+        ),
+        ("acidification_test Furosemide–fludrocortisone test", "furosemide_fludrocortisone"),
+        ("x Ammonium chloride loading", "ammonium_chloride"),
+        ("renin_aldosterone Plasma renin, aldosterone", None),
+    ],
+)
+def test_loading_tests_are_recognised_in_suggestions(text: str, kind: str | None) -> None:
+    assert lib._loading_kind(text) == kind
+
+
+def test_a_loading_test_already_drawn_is_not_expected_again(cases_dir: Path) -> None:
+    from workup.assess import Assessment
+    from workup.findings import NextTest
+
+    suggested = [
+        NextTest("renin_aldosterone", "Plasma renin, aldosterone", "why"),
+        NextTest("bicarbonate_loading_fehco3", "Bicarbonate loading with FEHCO3", "why"),
+    ]
+
+    def fixed(case: object, *_a: object) -> Assessment:
+        return Assessment("x", None, {}, [], [], suggested, [], [], [], None)
+
+    drawn = lib.summarize_case(load_case(cases_dir / "distal-rta-classic.yaml"), fixed, {})
+    not_drawn = lib.summarize_case(load_case(cases_dir / "ckd-acidosis.yaml"), fixed, {})
+    assert drawn["pending"] and not_drawn["pending"]
+    assert drawn["next_test"] == "Plasma renin, aldosterone"
+    assert not drawn["loading_expected"]  # the case has a bicarbonate-loading draw already
+    assert not_drawn["loading_expected"]
+
+
 def test_an_assessment_that_raises_does_not_stop_the_listing(cases_dir: Path) -> None:
     def broken_assess(*_a: object) -> None:
         raise ZeroDivisionError("boom")
