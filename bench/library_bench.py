@@ -179,6 +179,7 @@ def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
             folder = Path(tmp) / "cases"
             cache = Path(tmp) / "cache" / "index.sqlite"
             paths = generate_library(folder, n)
+            load_before = os.getloadavg()[0]
             baseline = yaml_baseline(paths)
             cold, entries = _timed(list_library, folder, cache_file=cache)
             warm, _ = _timed(list_library, folder, cache_file=cache)
@@ -191,6 +192,8 @@ def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
                     "files": n,
                     "cases_ok": sum(1 for e in entries if e.ok),
                     "cpus": os.cpu_count(),
+                    # Other work on the machine slows the pool more than the one-process baseline.
+                    "load_avg_1min": [round(load_before, 2), round(os.getloadavg()[0], 2)],
                     "yaml_parse_s": round(baseline, 3),
                     "cold_s": round(cold, 3),
                     "cold_over_yaml": round(cold / baseline, 2),
