@@ -128,7 +128,12 @@ class TrendsScreen(Screen):
         yield Static(f"Trends: {self.case.label}", id="trends-title")
         with VerticalScroll(id="trends-body"):
             yield Static(LEGEND, id="trends-legend")
-            for s in trends(self.case):
+            try:
+                series = trends(self.case)
+            except Exception as exc:  # a calculator's failure must not close the app
+                yield Static(f"The trends cannot be drawn: {type(exc).__name__}: {exc}")
+                return
+            for s in series:
                 yield Static(series_text(s), classes="trend")
         yield Footer()
 
@@ -186,13 +191,20 @@ class CompareScreen(Screen):
     def __init__(self, case: Case) -> None:
         super().__init__()
         self.case = case
+        self.error: str | None = None
+        """Why the comparison cannot be shown (fewer than two draws, a failing calculator)."""
+        self.labels: list[str] = []
+        self.a = self.b = ""
         from workup.assess import assess
 
-        self._assessment = assess(case)
-        # The core's order (by time when every draw is dated), not necessarily the file's.
-        self.labels = [p.draw for p in trends(case, self._assessment)[0].points]
-        first = compare(case, assessment=self._assessment)
-        self.a, self.b = first.a, first.b
+        try:
+            self._assessment = assess(case)
+            # The core's order (by time when every draw is dated), not necessarily the file's.
+            self.labels = [p.draw for p in trends(case, self._assessment)[0].points]
+            first = compare(case, assessment=self._assessment)
+            self.a, self.b = first.a, first.b
+        except Exception as exc:  # shown on the screen rather than closing the app
+            self.error = str(exc.args[0]) if isinstance(exc, KeyError) else f"{exc}"
 
     def compose(self) -> ComposeResult:
         yield Static("", id="compare-title")
@@ -205,6 +217,9 @@ class CompareScreen(Screen):
         yield Footer()
 
     def on_mount(self) -> None:
+        if self.error is not None:
+            self.query_one("#compare-title", Static).update(f"Cannot compare: {self.error}")
+            return
         self.refresh_table()
         self.query_one(DataTable).focus()
 
@@ -236,6 +251,8 @@ class CompareScreen(Screen):
             )
 
     def _step(self, which: str) -> None:
+        if self.error is not None:
+            return
         current = getattr(self, which)
         other = self.b if which == "a" else self.a
         i = self.labels.index(current)

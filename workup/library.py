@@ -299,6 +299,18 @@ def _build(node: Any, ctor: Any) -> Any:
     raise _Slow(tag)
 
 
+def comparable_time(t: Any) -> Any:
+    """``t`` as a naive datetime that sorts with naive ones (a time with an offset goes to UTC).
+
+    Case files may mix local times with and without an offset; comparing those raises.
+    """
+    if t is None or t.tzinfo is None:
+        return t
+    from datetime import UTC
+
+    return t.astimezone(UTC).replace(tzinfo=None)
+
+
 @functools.lru_cache(maxsize=1)
 def _usual_ranges() -> dict[tuple[str, str], tuple[float, float]]:
     from workup.analytes import CATALOGUE
@@ -329,8 +341,11 @@ def summarize_case(
     """The index fields of a loaded case (everything but file name, size, mtime and errors)."""
     usual = _usual_ranges()
     draws = case.draws
-    timed = [d.taken for d in draws if d.taken is not None]
-    latest = case.latest_draw() if draws else None
+    timed = sorted((d.taken for d in draws if d.taken is not None), key=comparable_time)
+    try:
+        latest = case.latest_draw() if draws else None
+    except TypeError:  # times with and without a UTC offset in one case cannot be compared
+        latest = max(draws, key=lambda d: comparable_time(d.taken)) if timed else draws[-1]
     parts = [case.label, case.notes or ""]
     draw_json = []
     for d in draws:
@@ -357,7 +372,7 @@ def summarize_case(
     out: dict[str, Any] = {
         "label": case.label,
         "notes": case.notes or "",
-        "first_taken": min(timed).isoformat(timespec="minutes") if timed else None,
+        "first_taken": timed[0].isoformat(timespec="minutes") if timed else None,
         "latest_taken": (
             latest.taken.isoformat(timespec="minutes")
             if latest is not None and latest.taken
@@ -367,7 +382,7 @@ def summarize_case(
         "n_draws": len(draws),
         "has_loading": any(d.during is not None for d in draws),
         "text": " ".join(p for p in parts if p).lower(),
-        "dates": " ".join(sorted(t.isoformat(timespec="minutes") for t in timed)),
+        "dates": " ".join(t.isoformat(timespec="minutes") for t in timed),
         "error": None,
         "leading_id": None,
         "leading_name": None,
@@ -429,7 +444,12 @@ def summarize_file(
         error = f"{name}: cannot read: {type(exc).__name__}: {exc}"
         row = {**base, "ok": 0, "error": error, "n_draws": 0, "text": error.lower()}
     else:
-        row = {**base, "ok": 1, **summarize_case(case, assess_fn, overrides or {})}
+        try:
+            row = {**base, "ok": 1, **summarize_case(case, assess_fn, overrides or {})}
+        except Exception as exc:  # the file loaded; say what failed and keep listing
+            error = f"{name}: cannot summarize the case: {type(exc).__name__}: {exc}"
+            row = {**base, "ok": 1, "label": case.label, "error": error, "n_draws": len(case.draws),
+                   "text": f"{case.label} {error}".lower()}  # fmt: skip
     return tuple(row.get(f) for f in ROW_FIELDS)
 
 

@@ -17,6 +17,7 @@ from typing import Any
 from workup.analytes import CATALOGUE, Panel, analyte
 from workup.assess import Assessment, assess
 from workup.findings import STATUS_MARK, STATUS_WORD, Finding, Status
+from workup.library import comparable_time
 from workup.model import Case
 
 MEASURED = "measured"
@@ -84,7 +85,7 @@ def _ordered(case: Case, a: Assessment) -> list[tuple[Any, dict[str, Finding]]]:
     findings = {r.label: r.findings for r in a.draws}
     draws = list(case.draws)
     if draws and all(d.taken is not None for d in draws):
-        draws.sort(key=lambda d: d.taken)
+        draws.sort(key=lambda d: comparable_time(d.taken))
     return [(d, findings.get(d.label, {})) for d in draws]
 
 

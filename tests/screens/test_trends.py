@@ -102,3 +102,14 @@ async def test_compare_screen_rows_and_stepping_draws(cases_dir: Path) -> None:
         await pilot.press("escape")
         await pilot.pause()
         assert not isinstance(app.screen, CompareScreen)
+
+
+async def test_compare_screen_explains_instead_of_failing(cases_dir: Path) -> None:
+    case = load_case(cases_dir / "ckd-acidosis.yaml")  # one draw only
+    app = Host(CompareScreen(case))
+    async with app.run_test(size=(80, 24)) as pilot:
+        await pilot.pause()
+        title = str(app.screen.query_one("#compare-title", Static).content)
+        assert title.startswith("Cannot compare") and "two draws" in title
+        await pilot.press("a")  # nothing to step; must not raise
+        await pilot.pause()

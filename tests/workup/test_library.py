@@ -326,6 +326,20 @@ def test_a_loading_test_already_drawn_is_not_expected_again(cases_dir: Path) -> 
     assert not_drawn["loading_expected"]
 
 
+def test_times_with_and_without_an_offset_in_one_case(tmp_path: Path) -> None:
+    folder = tmp_path / "mixed"
+    folder.mkdir()
+    (folder / "mixed.yaml").write_text(
+        "schema: 1\nlabel: Mixed clocks (invented)\ndraws:\n"
+        "  - label: a\n    taken: 2026-11-21T09:10+01:00\n"
+        "  - label: b\n    taken: 2026-11-20T09:10\n",
+        encoding="utf-8",
+    )
+    (e,) = list_library(folder, tmp_path / "i.sqlite", workers=1)
+    assert e.ok and e.label.startswith("Mixed clocks")
+    assert e.first_taken == "2026-11-20T09:10" and e.latest_draw == "a"
+
+
 def test_an_assessment_that_raises_does_not_stop_the_listing(cases_dir: Path) -> None:
     def broken_assess(*_a: object) -> None:
         raise ZeroDivisionError("boom")
