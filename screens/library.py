@@ -160,6 +160,7 @@ class LibraryScreen(Screen):
         self.narrow = False
         self._loaded_once = False
         self._cursor_name: str | None = None
+        self._matched: dict[str, Any] = {}
 
     # ------------------------------------------------------------ layout
 
@@ -197,13 +198,16 @@ class LibraryScreen(Screen):
 
     # ------------------------------------------------------------ loading
 
-    @work(thread=True, exclusive=True, group="library")
     def load(self) -> None:
-        """Bring the index up to date and read its rows (in a thread: a cold build takes time)."""
+        """Bring the index up to date and show its rows (a cold build takes time: in a thread)."""
+        self._load_rows(self._overrides())  # the app's settings are read here, on its thread
+
+    @work(thread=True, exclusive=True, group="library")
+    def _load_rows(self, overrides: dict[str, float]) -> None:
         from workup.library import list_library
 
         try:
-            entries = list_library(self.cases_dir, overrides=self._overrides())
+            entries = list_library(self.cases_dir, overrides=overrides)
         except Exception as exc:  # shown on the screen; the files themselves are untouched
             self.app.call_from_thread(self._status, f"cannot read the library: {exc}", True)
             return
@@ -257,6 +261,8 @@ class LibraryScreen(Screen):
             self._status(f"search: {exc}", error=True)
             return
         self.shown = [m.entry for m in matches]
+        self._matched = {m.entry.name: m for m in matches if m.draw is not None}
+        self._preview_for = None
         self._fill()
         bad = sum(1 for e in self.entries if not e.ok)
         word = SORT_WORD[self.sort_key] + (", reversed" if self.reverse else "")
@@ -294,6 +300,16 @@ class LibraryScreen(Screen):
             text = preview_text(e.path, self._overrides())
         except Exception as exc:  # a failing calculator must not take the library down
             text = Text(f"{e.name}: the preview failed: {type(exc).__name__}: {exc}")
+        m = self._matched.get(e.name)
+        if m is not None:
+            from workup.formatting import fmt_number
+            from workup.library import status_word
+
+            values = ", ".join(
+                f"{f} {fmt_number(v, decimals=2 if abs(v or 0) < 10 else 1)} [{status_word(st)}]"
+                for f, v, st in m.values
+            )
+            text = Text(f"Search matched draw {m.draw!r}: {values}\n", style="bold") + text
         self.query_one("#lib-preview", Static).update(text)
 
     # ------------------------------------------------------------ actions

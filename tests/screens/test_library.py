@@ -113,6 +113,9 @@ async def test_conditions_and_bad_queries(folder: Path) -> None:
         screen.apply_search()
         low_k = _names(screen)
         assert low_k and "distal-rta-classic.yaml" in low_k  # baseline K 2.9 in the demo file
+        preview = str(screen.query_one("#lib-preview", Static).content)
+        assert "Search matched draw" in preview and "serum.potassium" in preview
+        assert "[measured]" in preview or "[unusual]" in preview
         screen.query_text = "uga>0"
         screen.apply_search()
         status = screen.query_one("#lib-status", Static)
