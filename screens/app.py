@@ -56,12 +56,17 @@ class WorkupApp(App[None]):
 
     def on_mount(self) -> None:
         self.theme = self._theme_name
+        # With a file the case comes up first; the library is built when the case is closed.
+        if self.start_file is None or not self.open_case(self.start_file):
+            self.show_library()
+        self._check_size()
+
+    def show_library(self) -> None:
+        """Make sure the library is on the screen stack (under any case) and shown."""
         from screens.library import LibraryScreen
 
-        self.push_screen(LibraryScreen(self.cases_dir))
-        if self.start_file is not None:
-            self.open_case(self.start_file)
-        self._check_size()
+        if not any(isinstance(s, LibraryScreen) for s in self.screen_stack):
+            self.push_screen(LibraryScreen(self.cases_dir))
 
     # ------------------------------------------------------------ terminal
 
@@ -102,7 +107,7 @@ class WorkupApp(App[None]):
 
         return CaseScreen(case, path, self.cases_dir, self.clock, self.user_overrides(), dirty)
 
-    def open_case(self, path: Path) -> None:
+    def open_case(self, path: Path) -> bool:
         """Open the case file at ``path`` on its findings, or say why it cannot be read."""
         from screens import persistence
 
@@ -114,10 +119,11 @@ class WorkupApp(App[None]):
             self.notify(
                 f"{shown}{more}", title="Cannot open the case", severity="error", timeout=15
             )
-            return
+            return False
         screen = self._case_screen(case, path)
         self.push_screen(screen)
         screen.call_after_refresh(screen.action_tab, "tab-findings")
+        return True
 
     def new_case(self) -> None:
         """Start a new, empty case (saved into the library folder on first save)."""

@@ -10,7 +10,7 @@ from __future__ import annotations
 from collections.abc import Callable
 from datetime import datetime
 from pathlib import Path
-from typing import Any
+from typing import TYPE_CHECKING, Any
 
 from pydantic import ValidationError
 from rich.text import Text
@@ -44,12 +44,14 @@ from screens.entry import (
 )
 from screens.findings_view import CausesView, FindingsView
 from screens.flags import FlagList
-from workup import diagram
 from workup.analytes import Panel, UnitSystem
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
 from workup.model import Case, Draw, GasSample, LoadingTest, Patient, Sex
 from workup.quantity import Measurement, convert
+
+if TYPE_CHECKING:
+    from workup import diagram
 
 TABS = (
     ("f2", "tab-draw", "Draw"),
@@ -69,7 +71,7 @@ def _same(a: Measurement | None, b: Measurement | None) -> bool:
 
 
 def _input(value: str, id_: str, max_length: int) -> Input:
-    return EntryInput(value, id=id_, compact=True, max_length=max_length)
+    return EntryInput(value, id=id_, compact=True, max_length=max_length, validate_on=[])
 
 
 def _select(options: list[tuple[str, Any]], value: Any, id_: str) -> Select:
@@ -533,6 +535,8 @@ class CaseScreen(Screen[None]):
         self._update_title()
 
     def _point(self, d: Draw) -> tuple[diagram.Point | None, str]:
+        from workup import diagram
+
         return diagram.point_for(
             d.blood_gas.canonical("ph"),
             d.blood_gas.canonical("bicarbonate"),
@@ -541,7 +545,15 @@ class CaseScreen(Screen[None]):
             d.label,
         )
 
+    @on(TabbedContent.TabActivated)
+    def _tab_shown(self, event: TabbedContent.TabActivated) -> None:
+        if event.pane.id == "tab-diagram":
+            self._update_diagram()
+
     def _update_diagram(self) -> None:
+        # Drawn only while visible: the geometry needs numpy, which start-up should not wait for.
+        if self.query_one(TabbedContent).active != "tab-diagram":
+            return
         point, source = self._point(self.draw)
         others = tuple(
             p
@@ -769,7 +781,11 @@ class CaseScreen(Screen[None]):
 
     def action_close(self) -> None:
         """Close the case and return to the library (asking about unsaved changes)."""
-        self.confirm_leave(self.dismiss)
+        self.confirm_leave(self._leave)
+
+    def _leave(self) -> None:
+        self.dismiss()
+        self.app.call_later(self.app.show_library)  # type: ignore[attr-defined]
 
     def action_note(self) -> None:
         """Open the note screen on the current assessment."""

@@ -7,6 +7,8 @@ say, so the diagram reads the same in monochrome.
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from rich.style import Style
 from rich.text import Text
 from textual.app import ComposeResult
@@ -14,8 +16,12 @@ from textual.containers import Horizontal
 from textual.widget import Widget
 from textual.widgets import Static
 
-from workup import diagram
 from workup.findings import STATUS_WORD, Finding
+
+if TYPE_CHECKING:
+    from workup import diagram
+
+# workup.diagram (and numpy behind it) is imported on first drawing, not at start-up.
 
 # One hue per band; the digits and the legend carry the same information without colour.
 BAND_COLOURS = {
@@ -58,6 +64,8 @@ class DiagramCanvas(Widget):
         self.refresh()
 
     def render(self) -> Text:
+        from workup import diagram
+
         r = diagram.raster(self.size.width, self.size.height, self.point, self.others)
         out = Text()
         for i, (row, styles) in enumerate(zip(r.chars, r.styles, strict=True)):
@@ -72,6 +80,8 @@ def legend_text(
     point: diagram.Point | None, source: str, check: Finding | None, others: int
 ) -> Text:
     """The legend: what the marks mean, where the point is and how far it can be trusted."""
+    from workup import diagram
+
     out = Text()
     out.append("pH across, HCO3 mmol/L up\n", style="bold")
     if point is None:
@@ -122,4 +132,6 @@ class DavenportView(Horizontal):
 
 def band_rules_text() -> str:
     """Each band's rule and source, for the help screen."""
+    from workup import diagram
+
     return "\n".join(f"{b.digit} {b.name}: {b.rule} — {b.source}" for b in diagram.bands())

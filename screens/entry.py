@@ -184,6 +184,7 @@ class ValueField(Horizontal):
         self.key = key
         self.analyte = analyte(panel, key)
         self.unit: str | None = None
+        self._shown = ("", "")
 
     def compose(self) -> ComposeResult:
         name = f"{PANEL_WORD[self.panel]} {self.analyte.name}"
@@ -194,6 +195,7 @@ class ValueField(Horizontal):
             compact=True,
             max_length=40,
             select_on_focus=False,
+            validate_on=[],  # the core validates; Input's own classes would only cost restyles
         )
         yield Static("", classes="field-unit")
         yield Static("", classes="field-state")
@@ -211,16 +213,24 @@ class ValueField(Horizontal):
 
     def show_reading(self, reading: FieldReading) -> None:
         """Show the verdict in words and marks, never in colour alone."""
-        state = self.query_one(".field-state", Static)
-        self.remove_class("-refused", "-unusual", "-ok")
         if reading.problem:
-            state.update("x refused")
-            self.add_class("-refused")
+            word, cls = "x refused", "-refused"
         elif reading.caution:
-            state.update("! unusual")
-            self.add_class("-unusual")
+            word, cls = "! unusual", "-unusual"
         elif reading.measurement is not None:
-            state.update("+ read")
-            self.add_class("-ok")
+            word, cls = "+ read", "-ok"
         else:
-            state.update("")
+            word, cls = "", ""
+        if (word, cls) == self._shown:
+            return
+        self._shown = (word, cls)
+        # Colour by content markup, not CSS classes: a class change restyles the widget, and
+        # ~50 rows restyled on every draw switch was most of the time spent showing a draw.
+        colour = {"-refused": "bold $error", "-unusual": "bold $warning"}.get(cls)
+        text = f"[{colour}]{word}[/]" if colour else word
+        self.query_one(".field-state", Static).update(text)
+
+    @property
+    def state_kind(self) -> str:
+        """``-refused``, ``-unusual``, ``-ok`` or "" (empty field)."""
+        return self._shown[1]

@@ -109,7 +109,7 @@ async def test_impossible_value_is_refused_inline_and_nothing_crashes(demo: Path
         sodium.input.value = ""
         await pilot.press(*"1380")
         await pilot.pause()
-        assert sodium.has_class("-refused")
+        assert sodium.state_kind == "-refused"
         assert "x refused" in str(sodium.query_one(".field-state").render())
         assert "not a possible sodium" in str(screen.query_one("#field-help").render())
         assert screen.draw.serum.sodium is None
@@ -134,7 +134,7 @@ async def test_unusual_value_is_accepted_with_a_caution(demo: Path) -> None:
         k = _field(screen, "serum-potassium")
         k.input.value = "7.5"
         await pilot.pause()
-        assert k.has_class("-unusual")
+        assert k.state_kind == "-unusual"
         assert screen.draw.serum.potassium is not None
         assert screen.draw.serum.potassium.canonical == 7.5
         assert any("unusually high" in c for c in screen.assessment.cautions)
@@ -169,7 +169,7 @@ async def test_unit_switch_converts_and_an_ambiguous_bare_number_is_refused(
         creat.input.focus()
         creat.input.value = "0.8"
         await pilot.pause()
-        assert creat.unit is None and creat.has_class("-refused")  # never guessed
+        assert creat.unit is None and creat.state_kind == "-refused"  # never guessed
         assert screen.draw.serum.creatinine is None
         await pilot.press("ctrl+t")  # umol/L: 0.8 umol/L is not a possible creatinine
         await pilot.pause()
