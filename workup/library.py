@@ -461,6 +461,16 @@ def _summarize_chunk(
     return [summarize_file(base, n, s, m, overrides) for n, s, m in items]
 
 
+def pool_allowed() -> bool:
+    """True when this process may start a process pool itself.
+
+    Not from a process running other threads (the terminal app): forking it can deadlock a
+    child, and spawning fails under the app's captured standard streams. Such a process builds
+    a large index in a helper process instead (see workup.library_index).
+    """
+    return threading.active_count() == 1
+
+
 def summarize_many(
     folder: Path,
     items: list[tuple[str, int, int]],
@@ -470,17 +480,16 @@ def summarize_many(
     """Rows for ``items``, in chunks as they finish; a process pool when there are many."""
     cpus = os.cpu_count() or 1
     workers = cpus if workers is None else workers
-    if workers <= 1 or len(items) < POOL_THRESHOLD:
-        yield _summarize_chunk(str(folder), items, overrides)
+    if workers <= 1 or len(items) < POOL_THRESHOLD or not pool_allowed():
+        # Chunks, so that an interrupted build keeps what it has done.
+        for i in range(0, len(items), 400):
+            yield _summarize_chunk(str(folder), items[i : i + 400], overrides)
         return
     import multiprocessing
     from concurrent.futures import ProcessPoolExecutor, as_completed
 
-    # fork shares the already-imported core for free, but forking a process that runs other
-    # threads (the terminal app) can deadlock a child; spawn is the safe choice there.
-    method = (
-        "fork" if sys.platform.startswith("linux") and threading.active_count() == 1 else "spawn"
-    )
+    # fork shares the already-imported core for free (Linux); elsewhere spawn.
+    method = "fork" if sys.platform.startswith("linux") else "spawn"
     # Warm the imports once before forking, so each child starts ready.
     if method == "fork":
         import workup.assess

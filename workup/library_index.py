@@ -22,11 +22,13 @@ from typing import Any
 
 from workup import __version__
 from workup.library import (
+    POOL_THRESHOLD,
     ROW_FIELDS,
     DrawValues,
     LibraryEntry,
     draws_from_json,
     entry_from_row,
+    pool_allowed,
     scan_folder,
     summarize_many,
 )
@@ -209,6 +211,22 @@ class LibraryIndex:
         }
         todo = [(n, s, m) for n, (s, m) in sorted(on_disk.items()) if known.get(n) != (s, m)]
         gone = [n for n in known if n not in on_disk]
+        if (
+            len(todo) >= POOL_THRESHOLD
+            and workers != 1
+            and (os.cpu_count() or 1) > 1
+            and not pool_allowed()
+            and self.location is not None
+            and build_in_helper(self.folder, self.location, self.overrides)
+        ):
+            # The helper process filled the index using every core; read only what is left.
+            known = {
+                n: (s, m) for n, s, m in self.conn.execute("SELECT name, size, mtime_ns FROM cases")
+            }
+            read_by_helper = len(todo)
+            todo = [(n, s, m) for n, s, m in todo if known.get(n) != (s, m)]
+        else:
+            read_by_helper = 0
         insert = f"INSERT OR REPLACE INTO cases ({', '.join(ROW_FIELDS)}) VALUES ({', '.join('?' * len(ROW_FIELDS))})"
         if gone:
             self._write(
@@ -217,7 +235,8 @@ class LibraryIndex:
         if todo:
             for rows in summarize_many(self.folder, todo, self.overrides, workers):
                 self._write(lambda c, rows=rows: c.executemany(insert, rows))
-        stats = RefreshStats(len(todo), len(gone), len(on_disk) - len(todo), self._rebuilt)
+        read = max(read_by_helper, len(todo))
+        stats = RefreshStats(read, len(gone), len(on_disk) - read, self._rebuilt)
         self._rebuilt = False
         return stats
 
@@ -250,3 +269,45 @@ class LibraryIndex:
                 if wanted is None or r[0] in wanted
             )
         return {n: draws_from_json(d) for n, d in rows}
+
+
+def build_in_helper(folder: Path, location: Path, overrides: dict[str, float]) -> bool:
+    """Bring the index at ``location`` up to date from a separate, single-threaded process.
+
+    Used by processes that may not start a pool themselves (see workup.library.pool_allowed);
+    the helper may. Returns False when the helper failed (the caller then reads serially).
+    """
+    import subprocess
+    import sys
+
+    cmd = [sys.executable, "-m", "workup.library_index", str(folder), str(location)]
+    try:
+        done = subprocess.run(
+            cmd,
+            input=json.dumps(overrides),
+            text=True,
+            stdout=subprocess.DEVNULL,
+            stderr=subprocess.DEVNULL,
+            check=False,
+            timeout=3600,
+        )
+    except (OSError, subprocess.SubprocessError):
+        return False
+    return done.returncode == 0
+
+
+def _helper_main(argv: list[str]) -> int:
+    """``python -m workup.library_index FOLDER INDEX`` with the settings as JSON on stdin."""
+    import sys
+
+    folder, location = Path(argv[0]), Path(argv[1])
+    overrides = {str(k): float(v) for k, v in json.loads(sys.stdin.read() or "{}").items()}
+    with LibraryIndex.open(folder, location, overrides) as index:
+        index.refresh()
+    return 0
+
+
+if __name__ == "__main__":
+    import sys
+
+    raise SystemExit(_helper_main(sys.argv[1:]))

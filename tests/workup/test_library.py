@@ -271,6 +271,33 @@ def test_a_process_pool_gives_the_same_rows(tmp_path: Path) -> None:
     assert sum(not e.ok for e in pooled) == len(BROKEN) + 2
 
 
+def test_a_threaded_process_builds_a_large_index_in_a_helper(tmp_path: Path, monkeypatch) -> None:
+    # The terminal app runs threads, so it may not fork a pool; a helper process does it.
+    import workup.library_index as li
+
+    def not_here(*_a: object, **_k: object) -> None:
+        raise AssertionError("read in this process, not in the helper")
+
+    folder = tmp_path / "many"
+    generate_library(folder, lib.POOL_THRESHOLD + 5, seed=4)
+    _write_broken(folder)
+    stop = threading.Event()
+    other = threading.Thread(target=stop.wait)
+    other.start()
+    try:
+        assert not lib.pool_allowed()
+        with LibraryIndex.open(folder, tmp_path / "a.sqlite") as idx:
+            monkeypatch.setattr(li, "summarize_many", not_here)
+            stats = idx.refresh()
+            helped = idx.entries()
+    finally:
+        stop.set()
+        other.join()
+        monkeypatch.undo()
+    assert stats.read == lib.POOL_THRESHOLD + 5 + len(BROKEN) + 2
+    assert helped == list_library(folder, tmp_path / "b.sqlite", workers=1)
+
+
 def test_summary_carries_the_assessment(cases_dir: Path, tmp_path: Path) -> None:
     from workup.assess import assess
 
