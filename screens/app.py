@@ -102,10 +102,14 @@ class WorkupApp(App[None]):
                 self.notify(f"Settings file ignored: {exc}", severity="warning", timeout=10)
         return self._overrides
 
-    def _case_screen(self, case, path: Path | None, dirty: bool = False) -> CaseScreen:
+    def _case_screen(
+        self, case, path: Path | None, dirty: bool = False, tab: str = "tab-draw"
+    ) -> CaseScreen:
         from screens.case_screen import CaseScreen
 
-        return CaseScreen(case, path, self.cases_dir, self.clock, self.user_overrides(), dirty)
+        return CaseScreen(
+            case, path, self.cases_dir, self.clock, self.user_overrides(), dirty, start_tab=tab
+        )
 
     def open_case(self, path: Path) -> bool:
         """Open the case file at ``path`` on its findings, or say why it cannot be read."""
@@ -120,9 +124,7 @@ class WorkupApp(App[None]):
                 f"{shown}{more}", title="Cannot open the case", severity="error", timeout=15
             )
             return False
-        screen = self._case_screen(case, path)
-        self.push_screen(screen)
-        screen.call_after_refresh(screen.action_tab, "tab-findings")
+        self.push_screen(self._case_screen(case, path, tab="tab-findings"))
         return True
 
     def new_case(self) -> None:

@@ -112,6 +112,7 @@ class CaseScreen(Screen[None]):
         clock: Callable[[], datetime],
         overrides: dict[str, float] | None = None,
         dirty: bool = False,
+        start_tab: str = "tab-draw",
     ) -> None:
         super().__init__()
         self.case = case
@@ -120,6 +121,7 @@ class CaseScreen(Screen[None]):
         self.clock = clock
         self.overrides = overrides or {}
         self.dirty = dirty
+        self.start_tab = start_tab
         if not self.case.draws:
             self.case.draws.append(self._fresh_draw())
         self.index = len(case.draws) - 1
@@ -142,7 +144,7 @@ class CaseScreen(Screen[None]):
             (t.value.replace("_", " "), t.value) for t in LoadingTest
         ]
         yield Static("", id="titlebar")
-        with TabbedContent(id="tabs", initial="tab-draw"):
+        with TabbedContent(id="tabs", initial=self.start_tab):
             with TabPane("F2 Draw", id="tab-draw"):
                 with VerticalScroll(id="entry"):
                     yield _meta("draw", _select(self._draw_options(), self.index, "draw-select"),
@@ -202,7 +204,7 @@ class CaseScreen(Screen[None]):
             w.cursor_position = 0
         self._load_draw()
         self._recompute()
-        self.query_one("#in-serum-sodium", Input).focus()
+        self.action_tab(self.start_tab)
 
     # ----------------------------------------------------------------- state
 
