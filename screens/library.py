@@ -95,8 +95,10 @@ def preview_text(path: Path, overrides: dict[str, float]) -> Text:
     when = latest.taken.isoformat(sep=" ", timespec="minutes") if latest and latest.taken else ""
     out.append(f"{len(case.draws)} draw(s); latest: {a.draw_label or 'none'} {when}\n")
     lead = a.leading
-    if lead is not None:
+    if lead is not None and lead.verdict.value != "unlikely":
         out.append(f"Leading cause: {lead.name} ({lead.verdict.value})\n")
+    elif lead is not None:
+        out.append(f"No cause is likely or possible; best ranked: {lead.name} (unlikely)\n")
     for note in a.ranking_notes[:1]:
         out.append(note + "\n", style="italic")
     if a.next_tests:
