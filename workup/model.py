@@ -276,5 +276,10 @@ class Case(BaseModel):
         """The most recent draw by time taken (draws without a time count in file order)."""
         timed = [d for d in self.draws if d.taken is not None]
         if timed and len(timed) == len(self.draws):
-            return max(self.draws, key=lambda d: d.taken)  # type: ignore[arg-type, return-value]
+            return max(self.draws, key=lambda d: local_naive(d.taken))  # type: ignore[arg-type]
         return self.draws[-1]
+
+
+def local_naive(moment: datetime) -> datetime:
+    """``moment`` as naive local time, so times written with and without an offset compare."""
+    return moment.astimezone().replace(tzinfo=None) if moment.tzinfo is not None else moment

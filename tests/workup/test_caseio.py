@@ -172,3 +172,10 @@ def test_case_format_doc_lists_every_analyte_and_flag() -> None:
     missing = [a.label for a in all_analytes() if f"| `{a.key}` |" not in doc]
     missing += [f.value for f in Flag if f"| `{f.value}` |" not in doc]
     assert missing == []
+
+
+def test_latest_draw_with_and_without_utc_offsets() -> None:
+    # One draw written with an offset, one without: comparing them must not raise.
+    text = GOOD + "  - label: second\n    taken: 2026-12-01T08:15:00+00:00\n"
+    case = case_from_text(text)
+    assert case.latest_draw().label == "second"
