@@ -145,3 +145,19 @@ def test_normal_gap_with_paraprotein_or_lithium_is_a_caution(flag):
     assert serum_gaps.anion_gap(serum(**values)).status is Status.ok
     f = serum_gaps.anion_gap(DrawInputs(serum=values, context=frozenset({flag})))
     assert f.status is Status.caution and "lowers the measured gap" in f.reasons[0]
+
+
+def test_delta_ratio_with_a_gap_inside_its_reference_limit_reads_as_normal_gap() -> None:
+    # Brandis's bands (0.4–0.8 mixed) presume a high gap; a gap within the laboratory's limit
+    # is not a high-gap acidosis (common practice). AG 12.5 (limit 14, mean 10), HCO3 18:
+    # ratio (12.5 − 10)/(24 − 18) = 0.42 would fall in the "mixed" band.
+    from workup.indices.serum_gaps import delta_ratio
+    from workup.inputs import DrawInputs
+
+    f = delta_ratio(
+        DrawInputs(serum={"sodium": 140, "chloride": 110, "bicarbonate": 18, "albumin": 38})
+    )
+    assert f.value == pytest.approx(0.42, abs=0.01)
+    assert f.interpretation == "pure_normal_gap"
+    assert f.status.value == "caution"
+    assert any("reference limit" in r for r in f.reasons)

@@ -154,6 +154,15 @@ def delta_ratio(x: DrawInputs) -> Finding:
         reading = "high_gap"
     else:
         reading = "high_gap_plus_alkalosis"
+    if adjusted <= s.anion_gap_upper and reading != "pure_normal_gap":
+        # A ratio read against the gap's mean turns the normal scatter of the gap into a "second
+        # process"; with the gap inside its reference limit there is no high-gap acidosis to mix.
+        j.caution(
+            f"the corrected gap {fmt(adjusted)} is within the reference limit of "
+            f"{fmt(s.anion_gap_upper)}: the ratio reflects the gap's normal scatter, not a "
+            "high-gap process"
+        )
+        reading = "pure_normal_gap"
     j.note(
         f"the gap changed by {fmt(rise)} (corrected gap {fmt(adjusted)} over a mean of "
         f"{fmt(s.anion_gap_mean)}) while bicarbonate fell {fmt(fall)}: fits " + DELTA_WORDS[reading]
