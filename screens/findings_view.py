@@ -6,6 +6,8 @@ Every number shown here is one the core computed, printed with the core's status
 
 from __future__ import annotations
 
+from rich.console import Group
+from rich.padding import Padding
 from rich.text import Text
 from textual.app import ComposeResult
 from textual.binding import Binding
@@ -38,6 +40,11 @@ def status_text(f: Finding) -> Text:
     return Text(f"{STATUS_MARK[f.status]} {STATUS_WORD[f.status]}", style=style)
 
 
+def _item(text: str, indent: int, style: str = "") -> Padding:
+    """One line of text whose wrapped lines keep the indent (hanging, readable lists)."""
+    return Padding(Text(text, style=style), (0, 0, 0, indent))
+
+
 def reading_words(f: Finding) -> str:
     """The core's reading of a finding in plain words ("" when there is no value)."""
     if not f.interpretation or f.value is None:
@@ -45,26 +52,26 @@ def reading_words(f: Finding) -> str:
     return f.interpretation.replace("_", " ")
 
 
-def finding_detail(f: Finding, show_source: bool) -> Text:
+def finding_detail(f: Finding, show_source: bool) -> Group:
     """The reasons and missing inputs of one finding; formula and source when asked for."""
-    out = Text()
-    out.append(f"{f.name}: ", style="bold")
-    out.append(fmt_value(f) if f.value is not None else "no value")
-    out.append("  [")
-    out.append_text(status_text(f))
-    out.append("]")
+    head = Text()
+    head.append(f"{f.name}: ", style="bold")
+    head.append(fmt_value(f) if f.value is not None else "no value")
+    head.append("  [")
+    head.append_text(status_text(f))
+    head.append("]")
     if reading_words(f):
-        out.append(f"  reading: {reading_words(f)}")
-    for r in f.reasons:
-        out.append(f"\n  - {r}")
+        head.append(f"  reading: {reading_words(f)}")
+    out: list = [head]
+    out += [_item(f"- {r}", 2) for r in f.reasons]
     if f.needs:
-        out.append("\n  missing: " + ", ".join(f.needs))
+        out.append(_item("missing: " + ", ".join(f.needs), 2))
     if show_source:
-        out.append(f"\n  formula: {f.formula or 'not given'}")
-        out.append(f"\n  source: {f.source or 'not given'}")
+        out.append(_item(f"formula: {f.formula or 'not given'}", 2))
+        out.append(_item(f"source: {f.source or 'not given'}", 2))
     else:
-        out.append("\n  (s: formula and source)", style="dim")
-    return out
+        out.append(_item("(s: formula and source)", 2, "dim"))
+    return Group(*out)
 
 
 class IndexTable(DataTable):
@@ -102,11 +109,12 @@ class FindingsView(Vertical):
         # Value and status (mark and word) keep their full width; name and reading share the rest.
         table = self.query_one(IndexTable)
         table.clear(columns=True)
-        rest = max(width - 2 - (14 + 13) - 2 * 4, 24)
-        name = max(rest * 2 // 3, 16)
+        value = 14 if width < 100 else 18  # wide terminals show "mL/min/1.73 m2" whole
+        rest = max(width - 2 - (value + 13) - 2 * 4, 24)
+        name = min(max(rest * 2 // 3, 16), 40)
         self._width = width
         table.add_column("Index", key="name", width=name)
-        table.add_column("Value", key="value", width=14)
+        table.add_column("Value", key="value", width=value)
         table.add_column("Status", key="status", width=13)
         table.add_column("Reading", key="reading", width=rest - name)
 
@@ -163,15 +171,14 @@ class FindingsView(Vertical):
         self.refresh_detail()
 
 
-def disorders_text(a: Assessment) -> Text:
+def disorders_text(a: Assessment) -> Group:
     """The disorders of the draw with their evidence."""
-    out = Text()
-    out.append(f"Draw: {a.draw_label or 'none'}", style="bold")
-    out.append(f"   legend: {LEGEND}\n", style="dim")
+    head = Text()
+    head.append(f"Draw: {a.draw_label or 'none'}", style="bold")
+    head.append(f"   legend: {LEGEND}", style="dim")
     if not a.disorders:
-        out.append("Acid-base disorders: none identified from the values entered.")
-        return out
-    out.append("Acid-base disorders:")
+        return Group(head, Text("Acid-base disorders: none identified from the values entered."))
+    out: list = [head, Text("Acid-base disorders:")]
     for d in a.disorders:
         role = "primary" if d.primary else "added"
         bits = [role]
@@ -179,40 +186,36 @@ def disorders_text(a: Assessment) -> Text:
             bits.append(d.detail)
         if d.compensation:
             bits.append(f"compensation {d.compensation}")
-        out.append(f"\n  > {d.name} ({', '.join(bits)})", style="bold")
-        for e in d.evidence:
-            out.append(f"\n      - {e.text}")
-    return out
+        out.append(_item(f"> {d.name} ({', '.join(bits)})", 2, "bold"))
+        out += [_item(f"- {e.text}", 6) for e in d.evidence]
+    return Group(*out)
 
 
-def causes_text(a: Assessment | None, error: str | None = None) -> Text:
+def causes_text(a: Assessment | None, error: str | None = None) -> Group:
     """The ranked causes of a normal-gap acidosis with for/against/missing, then next tests."""
-    out = Text()
     if a is None:
-        out.append(error or "No assessment yet.")
-        return out
-    out.append("Causes of a normal-gap acidosis (judged on every draw)", style="bold")
-    for note in a.ranking_notes:
-        out.append(f"\n  {note}", style="italic")
+        return Group(Text(error or "No assessment yet."))
+    out: list = [Text("Causes of a normal-gap acidosis (judged on every draw)", style="bold")]
+    out += [_item(note, 2, "italic") for note in a.ranking_notes]
     if not a.patterns:
-        out.append("\n  No cause ranked.")
+        out.append(_item("No cause ranked.", 2))
     for p in a.patterns:
-        out.append(f"\n\n{p.verdict.value.upper():<9} ", style="bold reverse")
-        out.append(f" {p.name}", style="bold")
-        for e in p.support:
-            out.append(f"\n  + for: {e.text}")
-        for e in p.against:
-            out.append(f"\n  - against: {e.text}")
+        head = Text()
+        head.append(f"{p.verdict.value.upper():<9}", style="bold reverse")
+        head.append(f" {p.name}", style="bold")
+        out += [Text(""), head]
+        out += [_item(f"+ for: {e.text}", 4) for e in p.support]
+        out += [_item(f"- against: {e.text}", 4) for e in p.against]
         if p.missing:
-            out.append("\n  ? missing: " + ", ".join(p.missing))
-    out.append("\n\nSuggested next tests", style="bold")
+            out.append(_item("? missing: " + ", ".join(p.missing), 4))
+    out += [Text(""), Text("Suggested next tests", style="bold")]
     if not a.next_tests:
-        out.append("\n  none suggested")
+        out.append(_item("none suggested", 2))
     for t in a.next_tests:
-        out.append(f"\n  * {t.text}")
+        out.append(_item(f"* {t.text}", 2))
         if t.why:
-            out.append(f"\n      {t.why}", style="italic")
-    return out
+            out.append(_item(t.why, 6, "italic"))
+    return Group(*out)
 
 
 class CausesView(VerticalScroll):

@@ -210,7 +210,7 @@ def point_for(
     if gas_hco3 is not None:
         return Point(ph, gas_hco3, label), "gas bicarbonate"
     if pco2 is not None:
-        return Point(ph, float(hco3_on_isobar(ph, pco2)), label), "bicarbonate from pH and pCO2"
+        return Point(ph, float(hco3_on_isobar(ph, pco2)), label), "from pH and pCO2"
     if serum_hco3 is not None:
         return Point(ph, serum_hco3, label), "serum total CO2"
     return None, "enter the gas pCO2 or a bicarbonate to place the draw"

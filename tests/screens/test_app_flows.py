@@ -260,6 +260,22 @@ async def test_switch_draws_and_add_a_loading_test_draw(demo: Path) -> None:
         assert screen.case.draws[0].serum.chloride.canonical == 116
 
 
+async def test_loading_test_chosen_from_its_list_by_keys(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        await pilot.press("ctrl+pageup", "f2")  # baseline draw, no loading test
+        await pilot.pause()
+        assert screen.draw.during is None
+        await pilot.press("shift+tab")  # from serum sodium back to "during loading test"
+        assert app.focused is not None and app.focused.id == "meta-during"
+        await pilot.press("enter", "down", "enter")
+        await pilot.pause()
+        assert screen.draw.during is LoadingTest.bicarbonate_loading
+        assert screen.dirty
+
+
 async def test_case_details_and_context_flags_by_keys(demo: Path) -> None:
     app = _app(demo.parent, demo)
     async with app.run_test(size=SIZE) as pilot:
