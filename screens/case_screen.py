@@ -661,14 +661,15 @@ class CaseScreen(Screen[None]):
         def done(answer: str | None) -> None:
             if answer != "delete":
                 return
-            del self.case.draws[self.index]
+            gone = self.index
+            del self.case.draws[gone]
             self.pending = {
-                (i if i < self.index else i - 1, p, k): t
+                (i if i < gone else i - 1, p, k): t
                 for (i, p, k), t in self.pending.items()
-                if i != self.index
+                if i != gone
             }
+            self.switch_draw(min(gone, len(self.case.draws) - 1))
             self._mark_dirty()
-            self.switch_draw(min(self.index, len(self.case.draws) - 1))
 
         self.app.push_screen(
             ChoiceScreen(

@@ -6,13 +6,17 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
 from textual.screen import ModalScreen
-from textual.widgets import Button, Input, Static
+from textual.widgets import Button, Footer, Input, Static
 
 
 class ChoiceScreen(ModalScreen[str]):
     """Ask ``question``; dismisses with the key of the chosen answer ("cancel" on Escape)."""
 
-    BINDINGS = [Binding("escape", "choose('cancel')", "Cancel")]
+    BINDINGS = [
+        Binding("escape", "choose('cancel')", "Cancel"),
+        Binding("left", "app.focus_previous", "Previous", show=False),
+        Binding("right", "app.focus_next", "Next", show=False),
+    ]
 
     def __init__(self, question: str, answers: list[tuple[str, str]]) -> None:
         super().__init__()
@@ -25,6 +29,8 @@ class ChoiceScreen(ModalScreen[str]):
             with Horizontal(classes="dialog-buttons"):
                 for key, label in self.answers:
                     yield Button(label, id=f"answer-{key}", compact=True)
+            yield Static("Tab: next answer   Enter: choose   Esc: cancel", classes="dialog-hint")
+        yield Footer()
 
     def on_mount(self) -> None:
         self.query(Button).first().focus()
@@ -53,6 +59,7 @@ class AskScreen(ModalScreen[str | None]):
             yield Static(self.question, classes="dialog-question")
             yield Input(self.value, id="ask-input", compact=True, max_length=200)
             yield Static("Enter: accept   Esc: cancel", classes="dialog-hint")
+        yield Footer()
 
     def on_mount(self) -> None:
         self.query_one(Input).focus()

@@ -16,7 +16,7 @@ from textual.widgets import Input, Select
 
 from screens.app import build_app
 from screens.case_screen import CaseScreen
-from screens.dialogs import ChoiceScreen, TooSmallScreen
+from screens.dialogs import AskScreen, ChoiceScreen, TooSmallScreen
 from screens.entry import ValueField
 from screens.findings_view import IndexTable
 from screens.flags import FlagList
@@ -121,8 +121,9 @@ async def test_impossible_value_is_refused_inline_and_nothing_crashes(demo: Path
             f = _field(screen, fid)
             f.input.focus()
             f.input.value = text
-            await pilot.press("ctrl+t", "backspace", "enter", "shift+tab", "ctrl+pagedown")
-        await pilot.pause()
+            for k in ("ctrl+t", "backspace", "enter", "shift+tab"):
+                app.post_message(events.Key(k, None))
+            await pilot.pause()
         assert app.is_running
 
 
@@ -211,6 +212,34 @@ async def test_save_writes_the_case_and_reopening_shows_the_same_findings(demo: 
         assert isinstance(screen2, CaseScreen) and not screen2.dirty
         assert _table_rows(screen2) == first_rows
         assert screen2.assessment.to_json() == assess(saved).to_json()
+
+
+async def test_save_as_duplicate_and_delete_draw(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        screen.action_save_as()
+        await pilot.pause()
+        ask = app.screen
+        assert isinstance(ask, AskScreen)
+        ask.query_one(Input).value = "second copy"
+        await pilot.press("enter")
+        await pilot.pause()
+        assert screen.path == demo.parent / "second copy.yaml"
+        assert load_case(screen.path) == load_case(demo)
+        app.duplicate_case(screen)
+        await pilot.pause()
+        dup = app.screen
+        assert isinstance(dup, CaseScreen) and dup is not screen
+        assert dup.path is None and dup.dirty and dup.case.label.endswith("(copy)")
+        assert screen.case.label == load_case(demo).label  # the original is not renamed
+        dup.action_delete_draw()
+        await pilot.pause()
+        await pilot.press("tab", "enter")  # "Delete"
+        await pilot.pause()
+        assert [d.label for d in dup.case.draws] == ["baseline"]
+        assert dup.index == 0 and _field(dup, "serum-sodium").input.value == "139"
 
 
 async def test_new_case_is_saved_into_the_library_folder(tmp_path: Path) -> None:
@@ -407,3 +436,27 @@ async def test_optional_screens_open_or_say_they_are_missing(demo: Path) -> None
                 await pilot.press("escape")
                 await pilot.pause()
         assert app.is_running
+
+
+KEYS = [
+    *"0123456789.-+e ,?xk", "enter", "tab", "shift+tab", "backspace", "delete", "escape",
+    "up", "down", "left", "right", "home", "end", "space", "ctrl+t", "ctrl+n", "ctrl+pageup",
+    "ctrl+pagedown", "f1", "f2", "f3", "f4", "f5", "f6", "f7", "s", "pageup", "pagedown",
+]  # fmt: skip
+
+
+@pytest.mark.parametrize("seed", [1, 2])
+async def test_random_key_storms_do_not_crash(demo: Path, seed: int) -> None:
+    import random
+
+    rng = random.Random(seed)
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        for _ in range(12):
+            for k in rng.choices(KEYS, k=12):
+                app.post_message(events.Key(k, k if len(k) == 1 else None))
+            await pilot.pause()
+        assert app.is_running
+        case_screens = [s for s in app.screen_stack if isinstance(s, CaseScreen)]
+        assert case_screens and case_screens[0].case.draws
