@@ -70,7 +70,8 @@ async def test_enter_a_case_by_keys_and_see_its_findings(tmp_path: Path) -> None
         a = screen.assessment
         assert a is not None
         gap = a.indices["anion_gap"]
-        assert gap.value == pytest.approx(8.0)  # 139 − (116 + 15)
+        # AG = Na − (Cl + HCO3) = 139 − (116 + 15) (common practice formula).
+        assert gap.value == pytest.approx(8.0)
         await pilot.press("f4")
         await pilot.pause()
         rows = {r[0]: r for r in _table_rows(screen)}
@@ -132,6 +133,7 @@ async def test_unusual_value_is_accepted_with_a_caution(demo: Path) -> None:
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
         screen = app.screen
+        # Usual serum potassium 2.0–7.0 mmol/L (workup/analytes.py; common practice, from memory).
         k = _field(screen, "serum-potassium")
         k.input.value = "7.5"
         await pilot.pause()
@@ -179,7 +181,7 @@ async def test_unit_switch_converts_and_an_ambiguous_bare_number_is_refused(
         await pilot.pause()
         m = screen.draw.serum.creatinine
         assert m is not None and m.unit == "mg/dL"
-        # 0.8 mg/dL x 88.4 = 70.7 umol/L (unit table of the clinical-methods sheet, section 12).
+        # 0.8 mg/dL x 88.4 = 70.7 umol/L: creatinine 113.12 g/mol (IUPAC standard atomic weights).
         assert m.canonical == pytest.approx(70.7, abs=0.05)
         await pilot.press("ctrl+t")  # mmol/L: the value already read is converted, not re-read
         await pilot.pause()

@@ -27,7 +27,8 @@ def test_bare_number_is_read_in_the_unit_the_field_shows() -> None:
     r = read_field(creat, "0.8", "mg/dL", None)
     assert r.problem is None and r.measurement is not None
     assert r.measurement.unit == "mg/dL"
-    # 0.8 mg/dL x 88.4 = 70.7 umol/L (unit table, clinical-methods sheet section 12).
+    # 0.8 mg/dL x 88.4 = 70.7 umol/L: creatinine 113.12 g/mol (IUPAC standard atomic weights);
+    # the same factor appears in SI unit conversion tables.
     assert r.measurement.canonical == pytest.approx(70.7, abs=0.1)
 
 
@@ -46,6 +47,8 @@ def test_ambiguous_field_without_unit_is_refused_not_guessed() -> None:
 
 
 def test_impossible_and_unusual_values() -> None:
+    # Limits of workup/analytes.py: sodium possible 80–200, usual 120–160 mmol/L (common
+    # practice, chosen from memory to be generous).
     na = analyte(Panel.serum, "sodium")
     bad = read_field(na, "1380", "mmol/L", None)
     assert bad.measurement is None and "not a possible" in (bad.problem or "")
