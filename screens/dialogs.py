@@ -81,6 +81,7 @@ class TooSmallScreen(ModalScreen[None]):
 
     def compose(self) -> ComposeResult:
         yield Static("", id="too-small")
+        yield Footer()
 
     def on_mount(self) -> None:
         self.update_size()
