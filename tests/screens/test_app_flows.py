@@ -423,6 +423,26 @@ async def test_terminal_too_small_shows_a_message(tmp_path: Path) -> None:
         assert not isinstance(app.screen, TooSmallScreen)
 
 
+async def test_pasted_lab_report_is_applied_to_the_current_draw(demo: Path) -> None:
+    paste = pytest.importorskip("workup.paste")
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        await pilot.press("f8")
+        await pilot.pause()
+        assert app.screen is not screen
+        proposal = paste.propose("Sodium 137 mmol/L\nChloride 101 mmol/L\n", screen.case.units)
+        # Each line asks "serum or urine?"; answer with the first option, serum.
+        app.screen.dismiss(proposal.resolve({q.id: 0 for q in proposal.questions}))
+        await pilot.pause()
+        assert app.screen is screen
+        assert screen.draw.serum.sodium.canonical == 137
+        assert screen.draw.serum.chloride.canonical == 101
+        assert screen.draw.serum.potassium.canonical == 3.2  # untouched by the paste
+        assert _field(screen, "serum-sodium").input.value == "137" and screen.dirty
+
+
 async def test_optional_screens_open_or_say_they_are_missing(demo: Path) -> None:
     app = _app(demo.parent, demo)
     async with app.run_test(size=SIZE) as pilot:
