@@ -239,16 +239,6 @@ class CaseScreen(Screen[None]):
     def _system(self) -> UnitSystem | None:
         return self.case.units
 
-    def _load_case_fields(self) -> None:
-        c = self.case
-        self._set_input("#case-label", c.label)
-        self._set_select("#case-units", c.units.value if c.units else "none")
-        self._set_input("#case-age", "" if c.patient.age is None else str(c.patient.age))
-        self._set_select("#case-sex", c.patient.sex.value if c.patient.sex else "none")
-        self._set_input("#case-weight", c.patient.weight or "")
-        self._set_input("#case-notes", c.notes or "")
-        self.query_one("#case-context", FlagList).set_flags(list(c.context))
-
     def _quiet(self):
         # Values the screen sets itself must not come back as edits: a late Changed message
         # would otherwise be applied to whichever draw is showing when it arrives.
