@@ -125,6 +125,8 @@ class RunResult:
     """What the readiness check said ("" when there was none)."""
     exit_note: str = ""
     """Empty when the program quit by itself on Ctrl+Q; otherwise what happened."""
+    tree_peak_mib: float | None = None
+    """Peak summed PSS of the program and its helper processes, when sampled."""
 
 
 def one_run(
@@ -139,10 +141,11 @@ def one_run(
     timeout: float = 60,
     quiet: float = QUIET,
     ready: Callable[[bytes], str | None] | None = None,
+    sample_tree: bool = False,
 ) -> RunResult:
     """Start ``argv`` in a pty, measure it as described in the module docstring, and quit it."""
     reset_state(env)
-    s = Session(argv, env, str(cwd))
+    s = Session(argv, env, str(cwd), sample_tree=sample_tree)
     s.start()
     try:
         settled = s.wait_settled(quiet, timeout)
@@ -197,6 +200,7 @@ def one_run(
         screen=screen_text(s.output(), 400),
         ready=verdict,
         exit_note=exit_note,
+        tree_peak_mib=s.tree_peak_kib / 1024 if s.tree_peak_kib else None,
     )
 
 
@@ -249,6 +253,7 @@ def library_run(cases_dir: Path, env: dict[str, str], cwd: Path, timeout: float 
         timeout=timeout,
         quiet=2.0,
         ready=library_ready,
+        sample_tree=True,
     )
 
 

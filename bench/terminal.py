@@ -17,9 +17,11 @@ import select
 import signal
 import struct
 import termios
+import threading
 import time
 from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
+from pathlib import Path
 
 ALT_SCREEN_ON = b"\x1b[?1049h"
 """Sent by a full-screen program before its first frame."""
@@ -96,6 +98,94 @@ def bytes_between(chunks: Sequence[Chunk], start: float, end: float) -> int:
     return sum(len(c.data) for c in chunks if start <= c.t <= end)
 
 
+def parent_pid(stat_line: str) -> int:
+    """The parent pid from the text of /proc/PID/stat (the name in parentheses may hold spaces)."""
+    return int(stat_line.rsplit(")", 1)[1].split()[1])
+
+
+def descendants(parent_of: Mapping[int, int], root: int) -> set[int]:
+    """``root`` and every process below it, given each process's parent."""
+    children: dict[int, list[int]] = {}
+    for pid, ppid in parent_of.items():
+        children.setdefault(ppid, []).append(pid)
+    found, stack = {root}, [root]
+    while stack:
+        for child in children.get(stack.pop(), []):
+            if child not in found:
+                found.add(child)
+                stack.append(child)
+    return found
+
+
+def rss_kib(status_text: str) -> int:
+    """VmRSS in KiB from the text of /proc/PID/status (0 when absent, as for a zombie)."""
+    for line in status_text.splitlines():
+        if line.startswith("VmRSS:"):
+            return int(line.split()[1])
+    return 0
+
+
+def pss_kib(rollup_text: str) -> int | None:
+    """Pss in KiB from the text of /proc/PID/smaps_rollup (None when absent)."""
+    for line in rollup_text.splitlines():
+        if line.startswith("Pss:"):
+            return int(line.split()[1])
+    return None
+
+
+def process_kib(pid: int, proc: Path = Path("/proc")) -> int:
+    """One process's proportional set size (shared pages split among their users), else RSS."""
+    with contextlib.suppress(OSError):
+        pss = pss_kib((proc / str(pid) / "smaps_rollup").read_text())
+        if pss is not None:
+            return pss
+    return rss_kib((proc / str(pid) / "status").read_text())
+
+
+def tree_kib(root: int, proc: Path = Path("/proc")) -> int:
+    """Summed memory of ``root`` and its descendants right now (Linux /proc; PSS where known)."""
+    parent_of: dict[int, int] = {}
+    for entry in proc.iterdir():
+        if entry.name.isdigit():
+            with contextlib.suppress(OSError, ValueError, IndexError):
+                parent_of[int(entry.name)] = parent_pid((entry / "stat").read_text())
+    total = 0
+    for pid in descendants(parent_of, root):
+        with contextlib.suppress(OSError):
+            total += process_kib(pid, proc)
+    return total
+
+
+class TreeMemorySampler(threading.Thread):
+    """Samples the summed memory of a process tree every ``interval`` s and keeps the peak.
+
+    Each process counts its proportional set size (PSS: a page shared by n processes counts 1/n
+    in each), so a forked helper's shared pages are not counted twice; ``ru_maxrss`` from wait4
+    gives only the largest single process. A peak shorter than the interval can be missed.
+    """
+
+    def __init__(self, root: int, interval: float = 0.1) -> None:
+        super().__init__(daemon=True, name=f"rss-sampler-{root}")
+        self.root = root
+        self.interval = interval
+        self.peak_kib = 0
+        self.samples = 0
+        self._stop_event = threading.Event()
+
+    def run(self) -> None:
+        """Sample until stopped."""
+        while not self._stop_event.is_set():
+            with contextlib.suppress(OSError):
+                self.peak_kib = max(self.peak_kib, tree_kib(self.root))
+                self.samples += 1
+            self._stop_event.wait(self.interval)
+
+    def stop(self) -> None:
+        """Stop sampling and wait for the thread."""
+        self._stop_event.set()
+        self.join(timeout=2)
+
+
 @dataclass
 class Session:
     """A program running in a pty of ``cols`` x ``rows``; see :meth:`start`."""
@@ -124,7 +214,12 @@ class Session:
     """The child's peak resident set (KiB) once it has been reaped."""
     exit_status: int | None = None
     """Raw wait status once reaped."""
+    sample_tree: bool = False
+    """Also sample the summed memory (PSS) of the child and its helpers while it runs."""
+    tree_peak_kib: int | None = None
+    """Peak of that sum (KiB) once reaped, when sampled."""
     _pending: bytes = b""
+    _sampler: TreeMemorySampler | None = None
 
     def start(self) -> None:
         """Fork the child onto a new pty and exec ``argv``."""
@@ -139,6 +234,9 @@ class Session:
             finally:
                 os._exit(127)
         self.pid, self.fd = pid, fd
+        if self.sample_tree:
+            self._sampler = TreeMemorySampler(pid)
+            self._sampler.start()
 
     def now(self) -> float:
         """Seconds since start."""
@@ -240,7 +338,14 @@ class Session:
             self._read_once(0.1)
         return self._reap(deadline)
 
+    def _stop_sampler(self) -> None:
+        if self._sampler is not None:
+            self._sampler.stop()
+            self.tree_peak_kib = self._sampler.peak_kib
+            self._sampler = None
+
     def _reap(self, deadline: float) -> bool:
+        self._stop_sampler()  # before the child becomes a zombie with no memory to read
         while True:
             pid, status, usage = os.wait4(self.pid, os.WNOHANG)
             if pid == self.pid:
@@ -262,6 +367,7 @@ class Session:
 
     def kill(self) -> None:
         """Stop the child at once (used when a run fails)."""
+        self._stop_sampler()
         if self.pid > 0 and self.exit_status is None:
             with contextlib.suppress(ProcessLookupError):
                 os.kill(self.pid, signal.SIGKILL)

@@ -11,8 +11,13 @@ from bench.terminal import (
     Chunk,
     Session,
     bytes_between,
+    descendants,
     first_frame_index,
+    parent_pid,
+    pss_kib,
+    rss_kib,
     settled_index,
+    tree_kib,
 )
 
 
@@ -80,3 +85,35 @@ def test_real_pty_round_trip(tmp_path):
         s.kill()
     assert s.exit_status == 0
     assert s.max_rss_kib is not None and s.max_rss_kib > 0
+
+
+def test_parent_pid_survives_spaces_and_parentheses_in_the_name():
+    assert parent_pid("4242 (python -m (x) y) S 17 4242 4242 0 -1") == 17
+
+
+def test_descendants_walk_the_whole_tree_only():
+    parent_of = {10: 1, 11: 10, 12: 11, 13: 10, 20: 1, 21: 20}
+    assert descendants(parent_of, 10) == {10, 11, 12, 13}
+    assert descendants(parent_of, 21) == {21}
+
+
+def test_tree_memory_prefers_pss_and_falls_back_to_rss(tmp_path):
+    def proc(pid, ppid, pss=None, rss=0):
+        d = tmp_path / str(pid)
+        d.mkdir()
+        (d / "stat").write_text(f"{pid} (app) S {ppid} 1 1 0")
+        (d / "status").write_text(f"Name:\tapp\nVmRSS:\t  {rss} kB\n")
+        if pss is not None:
+            (d / "smaps_rollup").write_text(f"Rss:  {rss} kB\nPss:  {pss} kB\n")
+
+    proc(100, 1, pss=600, rss=900)  # the app
+    proc(101, 100, pss=300, rss=800)  # its helper, sharing pages with it
+    proc(102, 101, rss=50)  # a worker with no smaps_rollup: RSS instead
+    proc(200, 1, pss=5000, rss=5000)  # someone else's process
+    (tmp_path / "self").mkdir()  # not a pid: ignored
+    assert tree_kib(100, tmp_path) == 600 + 300 + 50
+    assert pss_kib("Rss: 1 kB\n") is None and rss_kib("Name: x\n") == 0
+
+
+def test_this_process_has_memory():
+    assert tree_kib(os.getpid()) > 0
