@@ -97,6 +97,7 @@ class CaseScreen(Screen[None]):
         Binding("f7", "note", "Note", id="note"),
         Binding("f8", "paste", "Paste labs", id="paste", show=False),
         Binding("f9", "trends", "Trends", id="trends", show=False),
+        Binding("shift+f9", "compare", "Compare draws", id="compare", show=False),
         Binding("ctrl+o", "close", "Library", id="close"),
         # Priority: scrolling containers would otherwise take these as "page left/right".
         Binding("ctrl+pageup", "previous_draw", "Previous draw", show=False, priority=True),
@@ -849,6 +850,7 @@ class CaseScreen(Screen[None]):
             ("Ctrl+S", "save;  Save as, duplicate, delete draw: Ctrl+P"),
             ("F7", "draft the note (copy or write to a file)"),
             ("F8 / F9", "paste a lab report / trends over the draws"),
+            ("Shift+F9", "compare the draws side by side"),
             ("Ctrl+O", "close the case and go to the library"),
             ("Ctrl+Q", "quit (asks when changes are unsaved)"),
         ]
