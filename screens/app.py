@@ -193,6 +193,7 @@ class WorkupApp(App[None]):
         self.theme = DEFAULT_THEME if self.theme == HIGH_CONTRAST_THEME else HIGH_CONTRAST_THEME
 
     def get_system_commands(self, screen: Screen) -> Iterable[SystemCommand]:
+        """Palette entries: Textual's own, the app's, and every action of ``screen``."""
         yield from super().get_system_commands(screen)
         yield SystemCommand("Help", "Keys, status marks and cautions (F1)", self.action_help)
         yield SystemCommand(

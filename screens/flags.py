@@ -59,4 +59,5 @@ class FlagList(OptionList):
         self.post_message(self.Toggled(self, self.flags))
 
     def action_select(self) -> None:
+        """Enter toggles too (OptionList would only announce the choice)."""
         self.action_toggle()
