@@ -63,6 +63,7 @@ async def test_enter_a_case_by_keys_and_see_its_findings(tmp_path: Path) -> None
         screen = app.screen
         assert isinstance(screen, CaseScreen)
         assert app.focused is not None and app.focused.id == "in-serum-sodium"
+        assert app.focused.cursor_blink is False  # no idle bytes over SSH
         # Demo B baseline (invented): Na 139, K 2.9, Cl 116, HCO3 15; Enter moves on.
         await pilot.press(*"139", "enter", *"2.9", "enter", *"116", "enter", *"15", "enter")
         assert app.focused.id == "in-serum-urea-nitrogen"
