@@ -215,7 +215,15 @@ class CaseScreen(Screen[None]):
         return self.case.draws[self.index]
 
     def _draw_options(self) -> list[tuple[str, int]]:
-        return [(f"{i + 1}. {x.label}", i) for i, x in enumerate(self.case.draws)]
+        out = []
+        for i, x in enumerate(self.case.draws):
+            text = f"{i + 1}. {x.label}"
+            if x.taken is not None:
+                text += f", {x.taken:%d %b %H:%M}"
+            if x.during is not None:
+                text += ", loading"
+            out.append((text, i))
+        return out
 
     def _fresh_draw(self) -> Draw:
         labels = {d.label for d in self.case.draws}
@@ -353,6 +361,7 @@ class CaseScreen(Screen[None]):
             taken, problem = self.draw.taken, "x refused: write e.g. 2026-11-30T08:15"
         if problem is None and taken != self.draw.taken:
             self.draw.taken = taken
+            self._refresh_draw_options()
             self._mark_dirty()
             self._recompute()
         self._meta_state("st-taken", problem)
@@ -369,6 +378,7 @@ class CaseScreen(Screen[None]):
         during = None if event.value in (NO_TEST, Select.NULL) else LoadingTest(event.value)
         if during != self.draw.during:
             self.draw.during = during
+            self._refresh_draw_options()
             self._mark_dirty()
             self._recompute()
 
