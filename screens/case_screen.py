@@ -511,7 +511,12 @@ class CaseScreen(Screen[None]):
             out.append(" (Ctrl+T switches)")
         if a.words:
             out.append("; grades: " + ", ".join(a.words))
-        if reading.problem:
+        if reading.problem and field.unit is None and "ambiguous" in reading.problem:
+            out.append(
+                "\nx refused: no unit yet. Ctrl+T picks one, or set the case's unit system on F3.",
+                style="bold",
+            )
+        elif reading.problem:
             out.append("\nx refused: " + reading.problem, style="bold")
         elif reading.caution:
             out.append("\n! " + reading.caution, style="bold")
