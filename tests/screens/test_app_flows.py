@@ -174,6 +174,7 @@ async def test_unit_switch_converts_and_an_ambiguous_bare_number_is_refused(
         creat.input.value = "0.8"
         await pilot.pause()
         assert creat.unit is None and creat.state_kind == "-refused"  # never guessed
+        assert "Ctrl+T picks one" in str(screen.query_one("#field-help").render())
         assert screen.draw.serum.creatinine is None
         await pilot.press("ctrl+t")  # umol/L: 0.8 umol/L is not a possible creatinine
         await pilot.pause()
