@@ -57,3 +57,11 @@ def test_refused_value_inline(snap_compare) -> None:
 
 def test_terminal_too_small(snap_compare) -> None:
     assert snap_compare(_app(None), terminal_size=(60, 20))
+
+
+def test_findings_without_colour(snap_compare, monkeypatch) -> None:
+    # NO_COLOR: status must still read from its mark and word alone.
+    monkeypatch.setenv("NO_COLOR", "1")
+    app = _app()
+    assert app.no_color
+    assert snap_compare(app, terminal_size=(80, 24))
