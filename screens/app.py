@@ -3,10 +3,17 @@
 The app owns the screen stack: the library at the bottom, a case workspace over it, dialogs and
 help over that. It holds no clinical logic. Heavy modules (the case workspace and the whole core
 behind it) are imported only when a case is opened, so the first screen comes up fast.
+
+Every case is opened through a session (screens/persistence.py): on start the drafts left by
+sessions that did not close are offered first; a dropped line (SIGHUP) writes the drafts once
+more and ends the process without a clean close, so they are offered again on the next start.
 """
 
 from __future__ import annotations
 
+import contextlib
+import os
+import signal
 from collections.abc import Callable, Iterable
 from datetime import datetime
 from pathlib import Path
@@ -22,6 +29,7 @@ from screens.messages import NewCase, OpenCase
 
 if TYPE_CHECKING:
     from screens.case_screen import CaseScreen
+    from screens.persistence import CaseSession, Draft
 
 DEFAULT_THEME = "textual-dark"
 HIGH_CONTRAST_THEME = "ansi-dark"
@@ -56,10 +64,70 @@ class WorkupApp(App[None]):
 
     def on_mount(self) -> None:
         self.theme = self._theme_name
+        if not self.is_headless:
+            self._catch_hangup()
+        drafts = self._pending_drafts()
+        if drafts:
+            from screens.recovery import RecoveryScreen
+
+            # Left-over edits come first: the start file may be one of them.
+            if self.start_file is None:
+                self.show_library()
+            self.push_screen(RecoveryScreen(drafts), self._recovery_done)
+        else:
+            self._start()
+        self._check_size()
+
+    def _start(self) -> None:
         # With a file the case comes up first; the library is built when the case is closed.
         if self.start_file is None or not self.open_case(self.start_file):
             self.show_library()
-        self._check_size()
+
+    def _pending_drafts(self) -> list[Draft]:
+        from screens import persistence
+
+        try:
+            return persistence.pending_drafts()
+        except OSError as exc:
+            self.notify(f"The drafts folder cannot be read: {exc}", severity="error", timeout=15)
+            return []
+
+    def _recovery_done(self, result: tuple[str, Draft | None] | None) -> None:
+        what, draft = result or ("later", None)
+        if what == "restore" and draft is not None:
+            start = self.start_file
+            if start is not None and draft.case_path != Path(os.path.realpath(start)):
+                self.notify(
+                    f"{start.name} was not opened; open it from the library (Ctrl+O) when "
+                    "you are done with the restored case.",
+                    timeout=10,
+                )
+            self.show_library()
+            self.restore_draft(draft)
+            return
+        self._start()
+
+    def _catch_hangup(self) -> None:
+        # A dropped SSH line sends SIGHUP. Write every open case's draft once more, then die of
+        # the signal as before: it is not a clean close, so the drafts stay for the next start.
+        def hangup(signum: int, frame: object) -> None:
+            try:
+                self.journal_all()
+            finally:
+                signal.signal(signal.SIGHUP, signal.SIG_DFL)
+                os.kill(os.getpid(), signal.SIGHUP)
+
+        with contextlib.suppress(ValueError, OSError):  # not the main thread: leave it
+            signal.signal(signal.SIGHUP, hangup)
+
+    def journal_all(self) -> None:
+        """Write the draft of every open case with unsaved edits now."""
+        from screens.case_screen import CaseScreen
+
+        for screen in self.screen_stack:
+            if isinstance(screen, CaseScreen) and screen.dirty:
+                with contextlib.suppress(Exception):  # one failing case must not stop the rest
+                    screen.journal_now()
 
     def show_library(self) -> None:
         """Make sure the library is on the screen stack (under any case) and shown."""
@@ -103,20 +171,36 @@ class WorkupApp(App[None]):
         return self._overrides
 
     def _case_screen(
-        self, case, path: Path | None, dirty: bool = False, tab: str = "tab-draw"
+        self,
+        case,
+        path: Path | None,
+        dirty: bool = False,
+        tab: str = "tab-draw",
+        session: CaseSession | None = None,
     ) -> CaseScreen:
         from screens.case_screen import CaseScreen
 
         return CaseScreen(
-            case, path, self.cases_dir, self.clock, self.user_overrides(), dirty, start_tab=tab
+            case,
+            path,
+            self.cases_dir,
+            self.clock,
+            self.user_overrides(),
+            dirty,
+            start_tab=tab,
+            session=session,
         )
 
-    def open_case(self, path: Path) -> bool:
-        """Open the case file at ``path`` on its findings, or say why it cannot be read."""
+    def open_case(self, path: Path, *, read_only: bool = False) -> bool:
+        """Open the case file at ``path`` on its findings, or say why it cannot be.
+
+        Returns False when nothing was shown for it (the file cannot be read); a question about
+        it (held by another session, left-over edits) counts as shown.
+        """
         from screens import persistence
 
         try:
-            case = persistence.read_case(path)
+            session = persistence.open_session(path, read_only=read_only)
         except persistence.CaseFileError as exc:
             shown = "\n".join(p.format(path.name) for p in exc.problems[:5])
             more = f"\n(+{len(exc.problems) - 5} more)" if len(exc.problems) > 5 else ""
@@ -124,8 +208,124 @@ class WorkupApp(App[None]):
                 f"{shown}{more}", title="Cannot open the case", severity="error", timeout=15
             )
             return False
-        self.push_screen(self._case_screen(case, path, tab="tab-findings"))
+        except persistence.CaseLockedError as exc:
+            self._ask_read_only(path, exc)
+            return True
+        except OSError as exc:
+            self.notify(f"{path}: {exc}", title="Cannot open the case", severity="error")
+            return False
+        self._tell_notes(session)
+        if session.pending_draft is not None:
+            self._offer_pending(session)
+        else:
+            self._show_session(session, session.case, dirty=False)
         return True
+
+    def _show_session(self, session: CaseSession, case, *, dirty: bool) -> None:
+        # A restored case that was never saved has no file yet: its first save names it.
+        path = session.path if session.base is not None or session.path.exists() else None
+        screen = self._case_screen(
+            case.model_copy(deep=True), path, dirty, tab="tab-findings", session=session
+        )
+        self.push_screen(screen)
+
+    def _tell_notes(self, session: CaseSession) -> None:
+        if session.lock is not None and session.lock.note:
+            self.notify(session.lock.note, title="Stale lock taken over", severity="warning",
+                        timeout=20)  # fmt: skip
+        for w in session.privacy:
+            self.notify(w.format(), title="Case folder not private", severity="warning",
+                        timeout=30)  # fmt: skip
+
+    def _ask_read_only(self, path: Path, exc: Exception) -> None:
+        holder = getattr(exc, "holder", None)
+        who = holder.describe() if holder else "another session (its details are unreadable)"
+
+        def done(answer: str | None) -> None:
+            if answer == "read_only":
+                self.open_case(path, read_only=True)
+            else:
+                self.show_library()
+
+        self.push_screen(
+            ChoiceScreen(
+                f"{path.name} is open in {who}.\nOpen it read-only here (no edits, no "
+                "saving), or cancel?",
+                [("read_only", "Open read-only"), ("cancel", "Cancel")],
+            ),
+            done,
+        )
+
+    def _offer_pending(self, session: CaseSession) -> None:
+        from screens.recovery import draft_line
+
+        draft = session.pending_draft
+        assert draft is not None
+        damaged = draft.case is None
+        answers = [("discard", "Discard them"), ("later", "Later")]
+        if not damaged:
+            answers.insert(0, ("restore", "Restore them"))
+
+        def done(answer: str | None) -> None:
+            case, dirty = session.case, False
+            if answer == "restore" and not damaged:
+                if draft.disk_changed():
+                    # Restore on the file the edits began from, so a save shows what changed.
+                    session.close(keep_draft=True)
+                    self.restore_draft(draft)
+                    return
+                case, dirty = session.restore_pending(), True
+            elif answer == "discard":
+                session.discard_pending()
+            self._show_session(session, case, dirty=dirty)
+
+        self.push_screen(
+            ChoiceScreen(
+                f"Unsaved edits of {session.path.name} were left by a session that did not "
+                "close:\n" + draft_line(draft).plain + "\nRestore them (still unsaved until "
+                "you save), discard them, or decide later?",
+                answers,
+            ),
+            done,
+        )
+
+    def restore_draft(self, draft: Draft) -> bool:
+        """Open a left-over draft's case with its edits (unsaved); False when it cannot be."""
+        from screens import persistence
+
+        changed = draft.case_path is not None and draft.disk_changed()
+        try:
+            session = persistence.restore_draft(draft)
+        except persistence.CaseLockedError as exc:
+            self.notify(f"Not restored: {exc}.", severity="error", timeout=10)
+            return False
+        except (OSError, ValueError) as exc:
+            self.notify(f"Not restored: {exc}", severity="error", timeout=10)
+            return False
+        if changed:
+            self.notify(
+                f"{session.path.name} changed on disk after these edits began; saving will "
+                "show the differences first.",
+                severity="warning",
+                timeout=15,
+            )
+        self._show_session(session, session.case, dirty=True)
+        return True
+
+    def action_drafts(self) -> None:
+        """List the left-over drafts again, to restore or discard them."""
+        from screens.recovery import RecoveryScreen
+
+        drafts = self._pending_drafts()
+        if not drafts:
+            self.notify("No unsaved edits are left over from other sessions.")
+            return
+
+        def done(result: tuple[str, Draft | None] | None) -> None:
+            if result and result[0] == "restore" and result[1] is not None:
+                self.restore_draft(result[1])
+
+        self.push_screen(RecoveryScreen(drafts), done)
 
     def new_case(self) -> None:
         """Start a new, empty case (saved into the library folder on first save)."""
@@ -202,6 +402,11 @@ class WorkupApp(App[None]):
             self.action_high_contrast,
         )
         yield SystemCommand("New case", "Start a new, empty case", self.new_case)
+        yield SystemCommand(
+            "Unsaved drafts",
+            "Edits left by sessions that did not close: restore or discard",
+            self.action_drafts,
+        )
         commands = getattr(screen, "commands", None)
         if callable(commands):
             for title, help_text, callback in commands():

@@ -3,6 +3,11 @@
 The screen keeps a working copy of the case. Every accepted change goes into that copy and the
 assessment is recomputed from it at once (``workup.assess.assess`` is fast); a refused value is
 kept as text beside the field, never in the case, and is reported before saving.
+
+The case is open through a :class:`workup.session.CaseSession` (see screens/persistence.py): the
+working copy is journaled to a draft every few seconds when it changed and on every draw change,
+so a crash or a dropped line loses at most the last few seconds; a save that would overwrite a
+file changed on disk shows the differences and asks first.
 """
 
 from __future__ import annotations
@@ -30,7 +35,7 @@ from textual.widgets import (
 
 from screens import persistence
 from screens.davenport import DavenportView, band_rules_text
-from screens.dialogs import AskScreen, ChoiceScreen
+from screens.dialogs import AskScreen, ChoiceScreen, ConflictScreen
 from screens.entry import (
     SECTIONS,
     EntryInput,
@@ -62,6 +67,9 @@ TABS = (
 )
 
 NO_TEST = "none"
+
+JOURNAL_SECONDS = 3.0
+"""How often unsaved edits are written to the draft (only when something changed since)."""
 
 
 def _same(a: Measurement | None, b: Measurement | None) -> bool:
@@ -99,6 +107,7 @@ class CaseScreen(Screen[None]):
         Binding("f9", "trends", "Trends", id="trends", show=False),
         Binding("shift+f9", "compare", "Compare draws", id="compare", show=False),
         Binding("ctrl+o", "close", "Library", id="close"),
+        Binding("ctrl+r", "backups", "Backups", id="backups", show=False),
         # Priority: scrolling containers would otherwise take these as "page left/right".
         Binding("ctrl+pageup", "previous_draw", "Previous draw", show=False, priority=True),
         Binding("ctrl+pagedown", "next_draw", "Next draw", show=False, priority=True),
@@ -114,10 +123,18 @@ class CaseScreen(Screen[None]):
         overrides: dict[str, float] | None = None,
         dirty: bool = False,
         start_tab: str = "tab-draw",
+        session: persistence.CaseSession | None = None,
     ) -> None:
         super().__init__()
         self.case = case
         self.path = path
+        self.session = session
+        """The open case file (lock, draft, conflict-checked save); None until a new case's
+        first edit is journaled."""
+        self.changed_since_journal = False
+        """Edits made since the last journal write (the timer writes only when True)."""
+        self.journal_problem: str | None = None
+        self._left_cleanly = False
         self.cases_dir = cases_dir
         self.clock = clock
         self.overrides = overrides or {}
@@ -205,7 +222,67 @@ class CaseScreen(Screen[None]):
             w.cursor_position = 0
         self._load_draw()
         self._recompute()
+        if self.read_only:
+            # A read-only session does not journal, so nothing may be edited in it.
+            for sel in ("#entry", "#case-form"):
+                self.query_one(sel).disabled = True
+            if self.start_tab in ("tab-draw", "tab-case"):
+                self.start_tab = "tab-findings"
+        else:
+            self.set_interval(JOURNAL_SECONDS, self.journal_tick, name="journal")
+            if self.dirty and self.session is not None:
+                self.journal_now()  # restored edits: make sure this session's draft holds them
         self.action_tab(self.start_tab)
+
+    def on_unmount(self) -> None:
+        # Leaving without the fellow choosing to save or discard (the app shut down around
+        # unsaved edits) is not a clean close: the lock goes, the draft stays.
+        self.end_session(clean=self._left_cleanly or not self.dirty)
+
+    # ----------------------------------------------------------------- session
+
+    @property
+    def read_only(self) -> bool:
+        """True when the case was opened while another session held it."""
+        return self.session is not None and self.session.read_only
+
+    def end_session(self, clean: bool) -> None:
+        """Release the case's lock; a clean close also deletes the draft."""
+        if self.session is not None:
+            self.session.close(keep_draft=not clean)
+
+    def journal_tick(self) -> None:
+        """Timer: write the draft when something changed since the last write."""
+        if self.changed_since_journal:
+            self.journal_now()
+
+    def journal_now(self) -> bool:
+        """Write the working copy to the draft now (if it differs); True when written."""
+        if self.read_only:
+            return False
+        self.changed_since_journal = False
+        # The session keeps the version it was given, and the screen edits self.case in
+        # place: hand it a copy, or later edits would look already journaled.
+        snapshot = self.case.model_copy(deep=True)
+        try:
+            if self.session is None:
+                if not self.dirty:
+                    return False
+                self.session = persistence.new_session(self.cases_dir, self.case.label, snapshot)
+            written = self.session.journal(snapshot)
+        except (OSError, persistence.CaseLockedError) as exc:
+            if self.journal_problem is None:
+                self.notify(
+                    f"Unsaved edits could not be written to the draft: {exc}. Save soon.",
+                    title="Draft not written",
+                    severity="error",
+                    timeout=15,
+                )
+            self.journal_problem = str(exc)
+            self.changed_since_journal = True
+            return False
+        self.journal_problem = None
+        return written
 
     # ----------------------------------------------------------------- state
 
@@ -235,11 +312,14 @@ class CaseScreen(Screen[None]):
 
     def _mark_dirty(self) -> None:
         self.dirty = True
+        self.changed_since_journal = True
         self._update_title()
 
     def _update_title(self) -> None:
         where = self.path.name if self.path else "not saved yet"
         mark = "* UNSAVED" if self.dirty else "saved"
+        if self.read_only:
+            mark = "READ-ONLY (open elsewhere)"
         self.query_one("#titlebar", Static).update(
             f"{mark} | {self.case.label} | draw {self.index + 1}/{len(self.case.draws)}: "
             f"{self.draw.label} | {where}"
@@ -603,6 +683,8 @@ class CaseScreen(Screen[None]):
 
     def action_next_unit(self) -> None:
         """Switch the focused field to its next unit, converting a value already read."""
+        if self._refuse_if_read_only():
+            return
         field = self._focused
         if field is None or field.analyte.words:
             self.notify("Move to a value field to switch its unit.", severity="warning")
@@ -630,6 +712,8 @@ class CaseScreen(Screen[None]):
         self.index = max(0, min(index, len(self.case.draws) - 1))
         self._load_draw()
         self._recompute()
+        if self.changed_since_journal:
+            self.journal_now()  # a draw added, copied, deleted or left: journal at once
 
     def action_previous_draw(self) -> None:
         """Show the draw before this one."""
@@ -643,6 +727,8 @@ class CaseScreen(Screen[None]):
 
     def action_new_draw(self) -> None:
         """Add an empty draw, time-stamped now, and show it."""
+        if self._refuse_if_read_only():
+            return
         self.case.draws.append(self._fresh_draw())
         self._mark_dirty()
         self.switch_draw(len(self.case.draws) - 1)
@@ -651,6 +737,8 @@ class CaseScreen(Screen[None]):
 
     def action_copy_draw(self) -> None:
         """Add a copy of this draw's values as a new draw."""
+        if self._refuse_if_read_only():
+            return
         new = self._fresh_draw()
         copy = self.draw.model_copy(deep=True)
         copy.label, copy.taken, copy.during = new.label, new.taken, None
@@ -660,6 +748,8 @@ class CaseScreen(Screen[None]):
 
     def action_delete_draw(self) -> None:
         """Remove this draw, after asking."""
+        if self._refuse_if_read_only():
+            return
         if len(self.case.draws) == 1:
             self.notify("A case keeps at least one draw.", severity="warning")
             return
@@ -693,33 +783,133 @@ class CaseScreen(Screen[None]):
             out.append(f"{self.case.draws[i].label}: {field.analyte.name} {text!r}")
         return out
 
-    def save_now(self, path: Path | None = None) -> bool:
-        """Write the case (refused values are not part of it); True when written."""
-        target = path or self.path or persistence.new_case_path(self.cases_dir, self.case.label)
-        try:
-            persistence.write_case(self.case, target)
-        except OSError as exc:
-            self.notify(f"Could not save to {target}: {exc}", severity="error", timeout=10)
+    def _refuse_if_read_only(self) -> bool:
+        if self.read_only:
+            who = self.session.holder.describe() if self.session and self.session.holder else ""
+            self.notify(
+                f"Read-only: this case is open in another session {who}. Close it there, "
+                "then open it again here to edit.",
+                severity="warning",
+            )
+        return self.read_only
+
+    def save_now(
+        self,
+        path: Path | None = None,
+        *,
+        force: bool = False,
+        then: Callable[[], None] | None = None,
+    ) -> bool:
+        """Write the case (refused values are not part of it); True when written now.
+
+        ``path`` saves under another name (the fellow has agreed to replace a file there).
+        When the file changed on disk since it was opened, nothing is written: the
+        differences are shown and the fellow chooses to overwrite, save as a new file or
+        cancel; ``then`` runs after a save that succeeds, now or after that choice.
+        """
+        if self._refuse_if_read_only():
             return False
-        self.path = target
+        case = self.case.model_copy(deep=True)
+        old = self.session
+        session: persistence.CaseSession | None = None
+        try:
+            session = self._session_for(path, case)
+            result = session.save(case, force=force)
+        except (persistence.SaveConflict, persistence.CaseLockedError, persistence.CaseFileError,
+                OSError, persistence.ReadOnlyError) as exc:  # fmt: skip
+            if session is not None and session is not old:
+                session.close(keep_draft=True)  # opened for this save only
+            return self._not_saved(exc, path, then)
+        if session is not old:
+            self.session = session
+            if old is not None:
+                old.close()  # its draft held the edits just saved elsewhere
+        self.path = session.path
         self.dirty = False
+        self.changed_since_journal = False
         self._update_title()
         refused = self.refused_summary()
         extra = f" {len(refused)} refused value(s) were not saved." if refused else ""
-        self.notify(f"Saved to {target}.{extra}", title="Saved")
+        if result.backup is not None:
+            extra += " The previous version is kept (Ctrl+R lists backups)."
+        if result.note:
+            extra += f" Comments could not be kept: {result.note}."
+        self.notify(f"Saved to {session.path}.{extra}", title="Saved")
+        if then is not None:
+            then()
         return True
+
+    def _not_saved(
+        self, exc: Exception, path: Path | None, then: Callable[[], None] | None
+    ) -> bool:
+        if isinstance(exc, persistence.SaveConflict):
+            self._show_conflict(exc, path, then)
+        elif isinstance(exc, persistence.CaseLockedError):
+            self.notify(f"Not saved: {exc}.", severity="error", timeout=10)
+        elif isinstance(exc, persistence.CaseFileError):
+            first = exc.problems[0].message if exc.problems else "unreadable"
+            self.notify(
+                f"Not saved: {path} is not a case file workup can read ({first}); "
+                "choose another name.",
+                severity="error",
+                timeout=10,
+            )
+        else:
+            target = path or (self.session.path if self.session else self.cases_dir)
+            self.notify(f"Could not save to {target}: {exc}", severity="error", timeout=10)
+        return False
+
+    def _session_for(self, path: Path | None, case: Case) -> persistence.CaseSession:
+        """The session a save goes through: this case's own, or one for the new file name."""
+        s = self.session
+        if path is None and self.path is not None and s is not None:
+            return s
+        if path is None:
+            # Never saved: the file is named after the label as it is now.
+            return persistence.new_session(self.cases_dir, self.case.label, case, keep=s)
+        if s is not None and s.path == Path(path).resolve():
+            return s
+        if Path(path).exists():
+            return persistence.open_session(Path(path))
+        return persistence.create_session(Path(path), case)
+
+    def _show_conflict(
+        self,
+        conflict: persistence.SaveConflict,
+        path: Path | None,
+        then: Callable[[], None] | None,
+    ) -> None:
+        gone = conflict.disk_text is None
+        what = "was deleted" if gone else "was changed outside this session"
+        message = (
+            f"{conflict.path.name} {what} since you opened it. Nothing was written.\n"
+            "Read the differences below, then choose."
+        )
+
+        def done(answer: str | None) -> None:
+            if answer == "overwrite":
+                self.save_now(path, force=True, then=then)
+            elif answer == "save_as":
+                target = conflict.path
+                suggested = persistence.free_path(target.parent, target.stem, ".yaml").name
+                self.action_save_as(suggested, then=then)
+
+        self.app.push_screen(ConflictScreen(message, conflict.diff), done)
 
     def action_save(self) -> None:
         """Save the case (asking first when some values were refused)."""
+        self._save_asking(None)
+
+    def _save_asking(self, then: Callable[[], None] | None) -> None:
         refused = self.refused_summary()
         if not refused:
-            self.save_now()
+            self.save_now(then=then)
             return
         listing = "\n".join(f"  {r}" for r in refused[:6])
 
         def done(answer: str | None) -> None:
             if answer == "save":
-                self.save_now()
+                self.save_now(then=then)
 
         self.app.push_screen(
             ChoiceScreen(
@@ -730,13 +920,18 @@ class CaseScreen(Screen[None]):
             done,
         )
 
-    def action_save_as(self) -> None:
+    def action_save_as(
+        self, suggested: str | None = None, then: Callable[[], None] | None = None
+    ) -> None:
         """Save under a new file name (in the library folder unless a full path is given)."""
-        suggested = (
-            self.path.name
-            if self.path
-            else persistence.new_case_path(self.cases_dir, self.case.label).name
-        )
+        if self._refuse_if_read_only():
+            return
+        if suggested is None:
+            suggested = (
+                self.path.name
+                if self.path
+                else persistence.new_case_path(self.cases_dir, self.case.label).name
+            )
 
         def done(answer: str | None) -> None:
             if not answer:
@@ -750,29 +945,39 @@ class CaseScreen(Screen[None]):
 
                 def confirm(answer: str | None) -> None:
                     if answer == "replace":
-                        self.save_now(target)
+                        self.save_now(target, then=then)
 
                 self.app.push_screen(
                     ChoiceScreen(
-                        f"{target} exists. Replace it?",
+                        f"{target} exists. Replace it? (Its version is kept as a backup.)",
                         [("cancel", "Keep it"), ("replace", "Replace")],
                     ),
                     confirm,
                 )
                 return
-            self.save_now(target)
+            self.save_now(target, then=then)
 
         self.app.push_screen(AskScreen("Save the case as (file name):", suggested), done)
 
     def confirm_leave(self, then: Callable[[], None]) -> None:
-        """Run ``then`` after saving or discarding unsaved changes, as the fellow chooses."""
-        if not self.dirty:
+        """Run ``then`` after saving or discarding unsaved changes, as the fellow chooses.
+
+        Either way it is a clean close: the draft is deleted when the screen goes.
+        """
+
+        def leave() -> None:
+            self._left_cleanly = True
             then()
+
+        if not self.dirty or self.read_only:
+            leave()
             return
 
         def done(answer: str | None) -> None:
-            if (answer == "save" and self.save_now()) or answer == "discard":
-                then()
+            if answer == "save":
+                self._save_asking(leave)
+            elif answer == "discard":
+                leave()
 
         refused = self.refused_summary()
         lost = (
@@ -793,8 +998,54 @@ class CaseScreen(Screen[None]):
         self.confirm_leave(self._leave)
 
     def _leave(self) -> None:
+        self.end_session(clean=True)
         self.dismiss()
         self.app.call_later(self.app.show_library)  # type: ignore[attr-defined]
+
+    def action_backups(self) -> None:
+        """List the kept previous versions of this case's file and restore one (after asking)."""
+        from screens.recovery import BackupsScreen
+
+        if self.path is None:
+            self.notify("This case has not been saved yet: it has no backups.")
+            return
+        backups = persistence.backups_of(self.path)
+        if not backups:
+            self.notify(
+                f"No backups of {self.path.name} yet: one is kept each time a save replaces it."
+            )
+            return
+
+        def chosen(backup: persistence.Backup | None) -> None:
+            if backup is None:
+                return
+            if self._refuse_if_read_only():
+                return
+            lost = " Your unsaved changes here are discarded." if self.dirty else ""
+            self.app.push_screen(
+                ChoiceScreen(
+                    f"Put back the version of {self.path.name} kept at "
+                    f"{backup.taken:%Y-%m-%d %H:%M:%S} UTC? The file's current version is "
+                    f"kept as a backup first.{lost}",
+                    [("cancel", "Cancel"), ("restore", "Put it back")],
+                ),
+                lambda answer: self._put_back(backup) if answer == "restore" else None,
+            )
+
+        self.app.push_screen(BackupsScreen(self.path.name, backups), chosen)
+
+    def _put_back(self, backup: persistence.Backup) -> None:
+        path = self.path
+        try:
+            persistence.put_back(backup)
+        except OSError as exc:
+            self.notify(f"Could not put the backup back: {exc}", severity="error", timeout=10)
+            return
+        self.notify(f"{backup.original.name} is back to the version of {backup.taken:%H:%M:%S}.")
+        self._left_cleanly = True
+        self.end_session(clean=True)
+        self.dismiss()
+        self.app.call_later(self.app.open_case, path)  # type: ignore[attr-defined]
 
     def action_note(self) -> None:
         """Open the note screen on the current assessment."""
@@ -814,6 +1065,8 @@ class CaseScreen(Screen[None]):
 
     def action_paste(self) -> None:
         """Read a pasted lab report into this draw (when the paste screen is available)."""
+        if self._refuse_if_read_only():
+            return
         try:
             from screens.paste import PasteScreen
             from workup.paste import apply_proposal
@@ -866,6 +1119,7 @@ class CaseScreen(Screen[None]):
             ("F7", "draft the note (copy or write to a file)"),
             ("F8 / F9", "paste a lab report / trends over the draws"),
             ("Shift+F9", "compare the draws side by side"),
+            ("Ctrl+R", "backups: earlier versions of this file, to put one back"),
             ("Ctrl+O", "close the case and go to the library"),
             ("Ctrl+Q", "quit (asks when changes are unsaved)"),
         ]
@@ -881,6 +1135,8 @@ class CaseScreen(Screen[None]):
              lambda: self.app.duplicate_case(self)),  # type: ignore[attr-defined]
             ("New case", "Start a new, empty case", lambda: self.app.new_case()),  # type: ignore[attr-defined]
             ("Close case", "Return to the library", self.action_close),
+            ("Backups…", "Earlier versions of this case's file; put one back (Ctrl+R)",
+             self.action_backups),
             ("New draw", "Add an empty draw, time-stamped now", self.action_new_draw),
             ("Copy draw", "Add a new draw holding this draw's values", self.action_copy_draw),
             ("Delete draw", "Remove the current draw", self.action_delete_draw),

@@ -1,10 +1,12 @@
-"""Small modal screens: a question with a few answers, a line of text to type, a size warning."""
+"""Small modal screens: a question with a few answers, a line of text to type, a save conflict,
+a size warning."""
 
 from __future__ import annotations
 
+from rich.text import Text
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.containers import Horizontal, Vertical
+from textual.containers import Horizontal, Vertical, VerticalScroll
 from textual.screen import ModalScreen
 from textual.widgets import Button, Footer, Input, Static
 
@@ -71,6 +73,78 @@ class AskScreen(ModalScreen[str | None]):
     def action_cancel(self) -> None:
         """Close without an answer."""
         self.dismiss(None)
+
+
+def diff_text(diff: str) -> Text:
+    """A unified diff for the screen: every line keeps its own -/+ mark; colour only adds."""
+    out = Text()
+    for line in diff.splitlines():
+        style = ""
+        if line.startswith(("---", "+++")):
+            style = "bold"
+        elif line.startswith("-"):
+            style = "red"
+        elif line.startswith("+"):
+            style = "green"
+        elif line.startswith("@@"):
+            style = "italic"
+        out.append(line + "\n", style=style)
+    return out
+
+
+class ConflictScreen(ModalScreen[str]):
+    """The case file changed on disk since it was opened: show the differences and ask.
+
+    Dismisses with "overwrite", "save_as" or "cancel" (also on Escape).
+    """
+
+    DEFAULT_CSS = """
+    ConflictScreen { align: center middle; }
+    ConflictScreen .dialog { width: 95%; max-width: 110; height: 90%; }
+    ConflictScreen #conflict-diff { height: 1fr; border: round $primary; }
+    """
+
+    BINDINGS = [
+        Binding("escape", "choose('cancel')", "Cancel"),
+        Binding("left", "app.focus_previous", "Previous", show=False),
+        Binding("right", "app.focus_next", "Next", show=False),
+    ]
+
+    def __init__(self, message: str, diff: str) -> None:
+        super().__init__()
+        self.message = message
+        self.diff = diff
+
+    def compose(self) -> ComposeResult:
+        with Vertical(classes="dialog"):
+            yield Static(self.message, classes="dialog-question", id="conflict-message")
+            yield Static(
+                "- lines: on disk now, would be lost;  + lines: your version",
+                classes="dialog-hint",
+            )
+            with VerticalScroll(id="conflict-diff", can_focus=True):
+                yield Static(diff_text(self.diff) if self.diff else "(no difference in the text)")
+            with Horizontal(classes="dialog-buttons"):
+                yield Button("Save as a new file", id="answer-save_as", compact=True)
+                yield Button("Overwrite (disk version kept as a backup)", id="answer-overwrite",
+                             compact=True)  # fmt: skip
+                yield Button("Cancel", id="answer-cancel", compact=True)
+            yield Static(
+                "Tab: next   Up/Down/PgUp/PgDn: scroll the differences   Esc: cancel",
+                classes="dialog-hint",
+            )
+        yield Footer()
+
+    def on_mount(self) -> None:
+        self.query_one("#answer-save_as", Button).focus()
+
+    def on_button_pressed(self, event: Button.Pressed) -> None:
+        event.stop()
+        self.dismiss((event.button.id or "answer-cancel").removeprefix("answer-"))
+
+    def action_choose(self, key: str) -> None:
+        """Answer ``key`` (bound to Escape for cancel)."""
+        self.dismiss(key)
 
 
 MIN_WIDTH, MIN_HEIGHT = 80, 24

@@ -1,7 +1,9 @@
 """Every case-file read and write the app makes goes through here, so saving can change in one place.
 
-For now this calls :mod:`workup.caseio` and :mod:`workup.storage` directly; the crash-safe save
-(journal, backups, locks, conflict checks) will be wired in behind these same functions.
+Cases are opened through a :class:`workup.session.CaseSession`: the case's lock is held while it is
+open, unsaved edits are journaled to a draft, a save refuses to overwrite a file that changed on
+disk (``SaveConflict``) and keeps the replaced version as a backup, and the file's own comments and
+key order survive a save (the session's round-trip save). The screens call only this module.
 """
 
 from __future__ import annotations
@@ -10,28 +12,99 @@ import re
 from pathlib import Path
 
 from workup.caseio import CaseFileError, load_case, save_case
+from workup.journal import Draft, discard_draft, pending_drafts
+from workup.locking import CaseLockedError, current_holder
 from workup.model import Case
-from workup.storage import atomic_write_text
+from workup.session import CaseSession, ReadOnlyError, SaveConflict, SaveResult
+from workup.storage import Backup, atomic_write_text, list_backups, restore_backup
 
 __all__ = [
+    "Backup",
     "CaseFileError",
+    "CaseLockedError",
+    "CaseSession",
+    "Draft",
+    "ReadOnlyError",
+    "SaveConflict",
+    "SaveResult",
+    "backups_of",
+    "create_session",
+    "discard_draft",
     "free_path",
     "new_case_path",
+    "new_session",
     "note_path",
+    "open_session",
+    "pending_drafts",
+    "put_back",
     "read_case",
+    "restore_draft",
     "write_case",
     "write_note",
 ]
 
 
 def read_case(path: Path) -> Case:
-    """Load the case at ``path``; raises CaseFileError with every problem in words."""
+    """Load the case at ``path`` without a session; raises CaseFileError with every problem."""
     return load_case(path)
 
 
 def write_case(case: Case, path: Path) -> Path:
-    """Save ``case`` to ``path`` (atomically, private); returns the path written."""
+    """Save ``case`` to ``path`` without a session (atomically, private); returns the path."""
     return save_case(case, path)
+
+
+def open_session(path: Path, *, read_only: bool = False) -> CaseSession:
+    """Open the case file at ``path`` with its lock (or without, read-only).
+
+    Raises CaseFileError when it cannot be read, CaseLockedError when another running session
+    holds it (unless ``read_only``).
+    """
+    return CaseSession.open(path, read_only=read_only)
+
+
+def create_session(path: Path, case: Case) -> CaseSession:
+    """A session for ``case`` to be saved at ``path``, which must not exist yet."""
+    return CaseSession.create(path, case)
+
+
+def restore_draft(draft: Draft) -> CaseSession:
+    """Reopen a left-over draft's case with its edits as the current, unsaved version."""
+    return CaseSession.restore(draft)
+
+
+def new_session(
+    cases_dir: Path, label: str, case: Case, keep: CaseSession | None = None
+) -> CaseSession:
+    """A session for a not-yet-saved case, at the first free file name for ``label``.
+
+    A name is free when no file has it and no running session holds it (two new cases in one
+    app both start as ``new-case.yaml`` otherwise). ``keep`` is returned unchanged when its
+    path is that free name.
+    """
+    stem = _slug(label)
+    n = 1
+    while True:
+        candidate = cases_dir / (f"{stem}.yaml" if n == 1 else f"{stem}-{n}.yaml")
+        n += 1
+        if keep is not None and keep.path == candidate.resolve():
+            return keep
+        if candidate.exists() or current_holder(candidate) is not None:
+            continue
+        try:
+            return CaseSession.create(candidate, case)
+        except (FileExistsError, CaseLockedError):
+            continue  # taken between the look and the lock
+
+
+def backups_of(path: Path) -> list[Backup]:
+    """The kept previous versions of the case file ``path``, newest first."""
+    return list_backups(path)
+
+
+def put_back(backup: Backup) -> Path:
+    """Put a backup back as its case file (the version it replaces is backed up first)."""
+    return restore_backup(backup)
 
 
 def _slug(text: str) -> str:
