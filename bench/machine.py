@@ -35,6 +35,23 @@ def load_average() -> list[float] | None:
         return None
 
 
+def source_state(root: Path) -> dict[str, Any]:
+    """The commit measured and how many files differed from it (others edit the tree live)."""
+    import subprocess
+
+    def git(*args: str) -> str:
+        done = subprocess.run(
+            ["git", "-C", str(root), *args], capture_output=True, text=True, check=False
+        )
+        return done.stdout.strip() if done.returncode == 0 else ""
+
+    status = git("status", "--porcelain", "--untracked-files=no")
+    return {
+        "commit": git("rev-parse", "--short", "HEAD") or "unknown",
+        "modified_files": len(status.splitlines()) if status else 0,
+    }
+
+
 def info() -> dict[str, Any]:
     """Processor count and model, Python, Textual and PyYAML versions, date, load."""
     try:
@@ -52,4 +69,5 @@ def info() -> dict[str, Any]:
         "pyyaml": _version("PyYAML"),
         "pydantic": _version("pydantic"),
         "load_before": load_average(),
+        **source_state(Path(__file__).resolve().parent.parent),
     }

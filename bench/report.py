@@ -22,8 +22,12 @@ def machine_line(m: dict[str, Any]) -> str:
     load_text = f"; load average before {load[0]}" if load else ""
     after = m.get("load_after")
     load_text += f", after {after[0]}" if after else ""
+    source = ""
+    if m.get("commit"):
+        changed = m.get("modified_files", 0)
+        source = f"; commit {m['commit']}" + (f" + {changed} modified files" if changed else "")
     return (
-        f"{m['date_utc']} UTC; {m['nproc']} CPUs, {m['cpu_model']}; Python {m['python']}, "
+        f"{m['date_utc']} UTC{source}; {m['nproc']} CPUs, {m['cpu_model']}; Python {m['python']}, "
         f"Textual {m['textual']}, PyYAML {m['pyyaml']}, pydantic {m['pydantic']}; "
         f"{m['platform']}{load_text}; run took {m.get('run_seconds', '?')} s"
     )

@@ -87,8 +87,10 @@ def test_docs_section_names_the_machine_and_carries_the_table():
         "date_utc": "2026-12-01 22:00", "nproc": 2, "cpu_model": "Some CPU", "platform": "Linux",
         "python": "3.11.7", "textual": "8.2.8", "pyyaml": "6.0.4", "pydantic": "2.14.4",
         "load_before": [1.5, 1.0, 0.5], "load_after": [2.0, 1.0, 0.5], "run_seconds": 150.0,
+        "commit": "abc1234", "modified_files": 2,
     }  # fmt: skip
     text = report.section({"machine": machine, "plan": {"pairs": 8}, "table": "| T |"})
     assert text.startswith(report.START) and text.endswith(report.END)
     assert "2 CPUs, Some CPU; Python 3.11.7, Textual 8.2.8" in text
     assert "load average before 1.5, after 2.0" in text and "| T |" in text
+    assert "commit abc1234 + 2 modified files" in text
