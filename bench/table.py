@@ -62,6 +62,8 @@ class Row:
     """The goal, if the figure has one."""
     note: str = ""
     """Why a figure is missing, or what to keep in mind reading it."""
+    also: tuple[Statistic, ...] = ()
+    """Statistics shown beside the median besides the judged one (e.g. the p99)."""
     extra: dict[str, Any] = field(default_factory=dict)
     """Raw samples and details, kept in the JSON file only."""
 
@@ -123,10 +125,12 @@ def cells(row: Row) -> list[str]:
         value = "not measured"
     else:
         value = f"{_num(row.value.median)} {row.unit} ({spread(row.value)})"
+        shown = list(row.also)
         if row.target is not None and row.target.statistic != "median":
-            stat = getattr(row.value, row.target.statistic)
-            label = {"p99": "p99", "high": "max"}[row.target.statistic]
-            value += f"; {label} {_num(stat)}"
+            shown.append(row.target.statistic)
+        for stat in dict.fromkeys(shown):
+            label = {"p99": "p99", "high": "max", "median": "median"}[stat]
+            value += f"; {label} {_num(getattr(row.value, stat))}"
     base = f"{_num(row.baseline.median)} {row.unit}" if row.baseline else ""
     if row.baseline_name and base:
         base += f" ({row.baseline_name})"

@@ -59,3 +59,10 @@ def test_render_has_one_line_per_row_and_shared_notes_once():
 def test_target_text():
     assert Target("ratio", "<=", 1.3).text("s") == "median ratio ≤ 1.3"
     assert Target("value", "<", 150.0, statistic="high").text("MiB") == "max < 150 MiB"
+
+
+def test_p99_is_shown_when_asked_and_the_judged_statistic_always():
+    asked = Row("Recompute", "ms", value=summarize([1.0, 2.0, 3.0]), also=("p99",))
+    assert "; p99 2.98" in render([asked])
+    judged = _row([100.0, 120.0, 140.0], Target("value", "<", 150.0, statistic="high"))
+    assert "; max 140" in render([judged])
