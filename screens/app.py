@@ -233,9 +233,14 @@ class WorkupApp(App[None]):
         if session.lock is not None and session.lock.note:
             self.notify(session.lock.note, title="Stale lock taken over", severity="warning",
                         timeout=20)  # fmt: skip
-        for w in session.privacy:
-            self.notify(w.format(), title="Case folder not private", severity="warning",
-                        timeout=30)  # fmt: skip
+        if session.privacy:
+            # One toast, not one per warning: the folder's chmod alone already shuts others
+            # out; every warning with its command is on the case's help screen (F1).
+            first = session.privacy[0]
+            more = len(session.privacy) - 1
+            tail = f"\n(+{more} more warning{'s' if more != 1 else ''}: F1)" if more else ""
+            self.notify(first.format() + tail, title="Case folder not private",
+                        severity="warning", timeout=30)  # fmt: skip
 
     def _ask_read_only(self, path: Path, exc: Exception) -> None:
         holder = getattr(exc, "holder", None)

@@ -1124,6 +1124,10 @@ class CaseScreen(Screen[None]):
             ("Ctrl+Q", "quit (asks when changes are unsaved)"),
         ]
         extra = "Davenport bands (F6):\n" + band_rules_text()
+        privacy = self.session.privacy if self.session is not None else []
+        if privacy:
+            extra += "\n\nPrivacy: other users of this machine can reach this case\n"
+            extra += "\n".join(f"  {w.format()}" for w in privacy)
         return f"case {self.case.label}", keys, self.specific_cautions(), extra
 
     def commands(self) -> list[tuple[str, str, Callable[[], Any]]]:
