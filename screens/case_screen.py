@@ -24,6 +24,7 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
+from textual.timer import Timer
 from textual.widgets import (
     Footer,
     Input,
@@ -135,6 +136,8 @@ class CaseScreen(Screen[None]):
         """Edits made since the last journal write (the timer writes only when True)."""
         self.journal_problem: str | None = None
         self._left_cleanly = False
+        self.journal_timer: Timer | None = None
+        """Writes the draft every JOURNAL_SECONDS while something changed (None read-only)."""
         self.cases_dir = cases_dir
         self.clock = clock
         self.overrides = overrides or {}
@@ -229,7 +232,7 @@ class CaseScreen(Screen[None]):
             if self.start_tab in ("tab-draw", "tab-case"):
                 self.start_tab = "tab-findings"
         else:
-            self.set_interval(JOURNAL_SECONDS, self.journal_tick, name="journal")
+            self.journal_timer = self.set_interval(JOURNAL_SECONDS, self.journal_tick)
             if self.dirty and self.session is not None:
                 self.journal_now()  # restored edits: make sure this session's draft holds them
         self.action_tab(self.start_tab)

@@ -1,0 +1,401 @@
+"""The app side of never losing a case: drafts offered on start, journal timing, save conflicts,
+read-only opening of a case held elsewhere, stale locks, privacy notes and backups.
+
+Pilot tests at 80 × 24 on a private copy of an invented demo case (cases/distal-rta-classic.yaml,
+Demo B); the draft folder is the per-test XDG_STATE_HOME of tests/conftest.py. Time is never
+waited for: the journal timer's callback is called directly.
+"""
+
+from __future__ import annotations
+
+import json
+import os
+import shutil
+from datetime import datetime
+from pathlib import Path
+
+import pytest
+from textual.widgets import Input, OptionList
+
+from screens.app import build_app
+from screens.case_screen import JOURNAL_SECONDS, CaseScreen
+from screens.dialogs import AskScreen, ChoiceScreen, ConflictScreen
+from screens.entry import ValueField
+from screens.recovery import BackupsScreen, RecoveryScreen
+from workup.caseio import load_case
+from workup.journal import draft_path, drafts_folder, list_drafts, pending_drafts, read_draft
+from workup.locking import CaseLock, current_holder, lock_path
+from workup.storage import list_backups
+
+CLOCK = datetime(2026, 12, 1, 8, 0)
+SIZE = (80, 24)
+
+
+def _app(cases: Path, file: Path | None = None):
+    return build_app(cases, file, clock=lambda: CLOCK)
+
+
+@pytest.fixture
+def demo(tmp_path: Path, cases_dir: Path) -> Path:
+    """A private copy (folder 0700, file 0600) of the invented two-draw distal RTA demo case."""
+    folder = tmp_path / "cases"
+    folder.mkdir(mode=0o700)
+    os.chmod(folder, 0o700)
+    target = folder / "distal.yaml"
+    shutil.copy(cases_dir / "distal-rta-classic.yaml", target)
+    os.chmod(target, 0o600)
+    return target
+
+
+def _field(screen: CaseScreen, fid: str) -> ValueField:
+    return screen.query_one(f"#row-{fid}", ValueField)
+
+
+def _messages(app) -> list[str]:
+    return [f"{n.title or ''}: {n.message}" for n in app._notifications]
+
+
+async def _leave_a_draft(demo: Path, sodium: str = "150") -> None:
+    """Edit the case in an app that then shuts down without the fellow saving or discarding."""
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        _field(screen, "serum-sodium").input.value = sodium
+        await pilot.pause()
+        assert screen.journal_now()
+
+
+# --------------------------------------------------------------------- drafts offered on start
+
+
+async def test_unclean_shutdown_keeps_the_draft_and_releases_the_lock(demo: Path) -> None:
+    await _leave_a_draft(demo)
+    assert current_holder(demo) is None and not lock_path(demo).exists()
+    [d] = pending_drafts()
+    assert d.case_path == demo.resolve()
+    assert d.case is not None and d.case.draws[-1].serum.sodium.canonical == 150
+    assert load_case(demo).draws[-1].serum.sodium.canonical == 141  # the file is untouched
+
+
+async def test_restore_offer_on_the_library_opens_the_edits_unsaved(demo: Path) -> None:
+    await _leave_a_draft(demo)
+    app = _app(demo.parent)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        offer = app.screen
+        assert isinstance(offer, RecoveryScreen)
+        listed = str(offer.query_one(OptionList).get_option_at_index(0).prompt)
+        assert "distal.yaml" in listed and "Demo B" in listed
+        await pilot.press("enter")
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        assert screen.dirty and "UNSAVED" in str(screen.query_one("#titlebar").render())
+        assert screen.case.draws[-1].serum.sodium.canonical == 150
+        assert load_case(demo).draws[-1].serum.sodium.canonical == 141  # still unsaved
+        assert current_holder(demo) is not None  # the restored session holds the case
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        assert not screen.dirty
+    assert load_case(demo).draws[-1].serum.sodium.canonical == 150
+    assert list_drafts() == []  # saved, then closed cleanly: nothing left over
+    # The save kept the file's own comment (round-trip save).
+    assert demo.read_text().startswith("# Invented demo case")
+
+
+async def test_later_then_opening_the_file_asks_again_and_discard_deletes(demo: Path) -> None:
+    await _leave_a_draft(demo)
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        assert isinstance(app.screen, RecoveryScreen)
+        await pilot.press("l")  # later: then the start file opens, and asks about its edits
+        await pilot.pause()
+        ask = app.screen
+        assert isinstance(ask, ChoiceScreen)
+        assert "did not close" in ask.question and "distal.yaml" in ask.question
+        await pilot.click("#answer-discard")
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen) and not screen.dirty
+        assert screen.case.draws[-1].serum.sodium.canonical == 141
+    assert list_drafts() == []
+
+
+async def test_a_damaged_draft_is_listed_with_its_problem_and_never_crashes(demo: Path) -> None:
+    bad = drafts_folder() / f"{'0' * 24}.draft.json"
+    bad.write_text('{"format": 1, "case_path": "/nowhere.yaml", "written": "yesterday"')
+    app = _app(demo.parent)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        offer = app.screen
+        assert isinstance(offer, RecoveryScreen)
+        listed = str(offer.query_one(OptionList).get_option_at_index(0).prompt)
+        assert "DAMAGED" in listed and "unreadable draft" in listed
+        await pilot.press("enter")  # cannot be restored: says so, stays
+        await pilot.pause()
+        assert app.screen is offer
+        assert any("cannot be restored" in m for m in _messages(app))
+        await pilot.press("d")  # discard asks first
+        await pilot.pause()
+        assert isinstance(app.screen, ChoiceScreen)
+        await pilot.click("#answer-discard")
+        await pilot.pause()
+        assert not isinstance(app.screen, RecoveryScreen)  # none left: the list closes
+        assert app.is_running
+    assert not bad.exists()
+
+
+async def test_a_draft_whose_file_changed_since_restores_onto_a_conflict(demo: Path) -> None:
+    await _leave_a_draft(demo)
+    demo.write_text(demo.read_text().replace("sicca symptoms", "sicca symptoms; seen by renal"))
+    app = _app(demo.parent)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        listed = str(app.screen.query_one(OptionList).get_option_at_index(0).prompt)
+        assert "changed on disk since" in listed
+        await pilot.press("enter")
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen) and screen.dirty
+        await pilot.press("ctrl+s")
+        await pilot.pause()
+        assert isinstance(app.screen, ConflictScreen)  # never overwritten silently
+    assert "seen by renal" in demo.read_text()
+
+
+# --------------------------------------------------------------------- the journal
+
+
+async def test_journal_timer_writes_only_when_something_changed(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        assert screen.journal_timer is not None
+        assert screen.journal_timer._interval == JOURNAL_SECONDS
+        draft = draft_path(demo)
+        screen.journal_tick()  # nothing changed: nothing written
+        assert not draft.exists()
+        _field(screen, "serum-chloride").input.value = "112"
+        await pilot.pause()
+        assert not draft.exists()  # not on every keystroke: on the timer
+        screen.journal_tick()
+        first = read_draft(draft)
+        assert first.case is not None and first.case.draws[-1].serum.chloride.canonical == 112
+        stamp = draft.stat().st_mtime_ns
+        screen.journal_tick()  # unchanged since: not rewritten
+        assert draft.stat().st_mtime_ns == stamp
+        _field(screen, "serum-chloride").input.value = "113"
+        await pilot.pause()
+        screen.journal_tick()
+        assert read_draft(draft).case.draws[-1].serum.chloride.canonical == 113
+
+
+async def test_a_draw_change_is_journaled_at_once(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        await pilot.press("ctrl+n")  # new draw: no timer needed
+        await pilot.pause()
+        d = read_draft(draft_path(demo))
+        assert d.case is not None and len(d.case.draws) == 3
+
+
+async def test_close_after_discard_deletes_the_draft_and_the_lock(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        _field(screen, "serum-sodium").input.value = "143"
+        await pilot.pause()
+        screen.journal_tick()
+        assert draft_path(demo).exists() and lock_path(demo).exists()
+        await pilot.press("ctrl+o")
+        await pilot.pause()
+        await pilot.click("#answer-discard")
+        await pilot.pause()
+        assert not isinstance(app.screen, CaseScreen)
+        assert not draft_path(demo).exists()
+        assert not lock_path(demo).exists() and current_holder(demo) is None
+    assert load_case(demo).draws[-1].serum.sodium.canonical == 141
+
+
+async def test_a_new_case_is_journaled_and_saved_under_its_label(tmp_path: Path) -> None:
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        screen = app.screen
+        screen.journal_tick()
+        assert list_drafts() == []  # an untouched new case leaves nothing behind
+        _field(screen, "serum-sodium").input.value = "137"
+        await pilot.pause()
+        screen.journal_tick()
+        [d] = list_drafts()
+        assert d.case_path == (tmp_path / "new-case.yaml").resolve() and d.base is None
+        screen.query_one("#case-label", Input).value = "Bed 9"
+        await pilot.pause()
+        assert screen.save_now()
+        assert screen.path == (tmp_path / "bed-9.yaml").resolve()
+        assert list_drafts() == []  # the draft under the first name went with the save
+        assert not (tmp_path / ".new-case.yaml.lock").exists()
+
+
+# --------------------------------------------------------------------- save conflicts
+
+
+async def _edit_then_change_on_disk(pilot, demo: Path) -> CaseScreen:
+    await pilot.pause()
+    screen = pilot.app.screen
+    _field(screen, "serum-sodium").input.value = "144"
+    await pilot.pause()
+    # Someone edits the file by hand meanwhile.
+    demo.write_text(demo.read_text().replace("Weakness;", "Weakness (hand edit);"))
+    await pilot.press("ctrl+s")
+    await pilot.pause()
+    return screen
+
+
+async def test_conflict_dialog_shows_the_diff_and_cancel_writes_nothing(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = await _edit_then_change_on_disk(pilot, demo)
+        dialog = app.screen
+        assert isinstance(dialog, ConflictScreen)
+        assert "changed outside this session" in dialog.message
+        assert "-notes: Invented scenario for demonstration and tests. Weakness (hand edit)" in (
+            dialog.diff
+        )
+        assert "+notes: Invented scenario for demonstration and tests. Weakness;" in dialog.diff
+        assert dialog.query_one("#conflict-diff").can_focus  # scrollable by keys
+        await pilot.press("escape")
+        await pilot.pause()
+        assert app.screen is screen and screen.dirty
+    assert "hand edit" in demo.read_text()
+    assert load_case(demo).draws[-1].serum.sodium.canonical == 141
+
+
+async def test_conflict_overwrite_keeps_the_disk_version_as_a_backup(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = await _edit_then_change_on_disk(pilot, demo)
+        await pilot.click("#answer-overwrite")
+        await pilot.pause()
+        assert app.screen is screen and not screen.dirty
+    assert load_case(demo).draws[-1].serum.sodium.canonical == 144
+    assert "hand edit" not in demo.read_text()
+    assert "hand edit" in list_backups(demo)[0].path.read_text()
+
+
+async def test_conflict_save_as_writes_a_new_file_and_leaves_the_other(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        screen = await _edit_then_change_on_disk(pilot, demo)
+        await pilot.click("#answer-save_as")
+        await pilot.pause()
+        ask = app.screen
+        assert isinstance(ask, AskScreen)
+        assert ask.query_one(Input).value == "distal-2.yaml"
+        await pilot.press("enter")
+        await pilot.pause()
+        assert app.screen is screen and not screen.dirty
+        assert screen.path == (demo.parent / "distal-2.yaml").resolve()
+        assert current_holder(demo) is None  # the old file's lock went with the switch
+    assert load_case(demo.parent / "distal-2.yaml").draws[-1].serum.sodium.canonical == 144
+    assert "hand edit" in demo.read_text()
+
+
+# --------------------------------------------------------------------- locks and privacy
+
+
+async def test_a_case_held_elsewhere_opens_read_only_or_not_at_all(demo: Path) -> None:
+    with CaseLock.acquire(demo):  # another session holds the case
+        app = _app(demo.parent, demo)
+        async with app.run_test(size=SIZE) as pilot:
+            await pilot.pause()
+            ask = app.screen
+            assert isinstance(ask, ChoiceScreen)
+            assert f"pid {os.getpid()}" in ask.question and "read-only" in ask.question
+            await pilot.click("#answer-read_only")
+            await pilot.pause()
+            screen = app.screen
+            assert isinstance(screen, CaseScreen) and screen.read_only
+            assert "READ-ONLY" in str(screen.query_one("#titlebar").render())
+            assert _field(screen, "serum-sodium").input.is_disabled  # no edits
+            assert screen.case.draws[-1].serum.sodium.canonical == 141  # the values show
+            before = demo.read_bytes()
+            await pilot.press("ctrl+s", "ctrl+n")
+            await pilot.pause()
+            assert any("Read-only" in m for m in _messages(app))
+            assert len(screen.case.draws) == 2
+            assert screen.journal_now() is False
+            assert demo.read_bytes() == before and list_drafts() == []
+        app = _app(demo.parent, demo)
+        async with app.run_test(size=SIZE) as pilot:
+            await pilot.pause()
+            await pilot.press("escape")  # cancel: the library instead
+            await pilot.pause()
+            assert type(app.screen).__name__ == "LibraryScreen"
+
+
+async def test_a_stale_lock_is_taken_over_with_a_note(demo: Path) -> None:
+    dead = {"pid": 999_999_999, "user": "someone", "host": "ward-pc", "since": "2026-11-30"}
+    lock_path(demo).write_text(json.dumps(dead))
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        assert isinstance(app.screen, CaseScreen)
+        notes = [m for m in _messages(app) if m.startswith("Stale lock")]
+        assert notes and "someone@ward-pc (pid 999999999)" in notes[0]
+        assert current_holder(demo).pid == os.getpid()
+
+
+async def test_an_open_folder_is_named_with_the_exact_chmod(demo: Path) -> None:
+    os.chmod(demo.parent, 0o755)
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        notes = [m for m in _messages(app) if m.startswith("Case folder not private")]
+        assert len(notes) == 1 and f"chmod 700 {demo.parent.resolve()}" in notes[0]
+        _title, _keys, _cautions, extra = app.screen.help_context()
+        assert f"chmod 700 {demo.parent.resolve()}" in extra
+
+
+# --------------------------------------------------------------------- backups
+
+
+async def test_backups_are_listed_and_one_is_put_back_after_asking(demo: Path) -> None:
+    original = demo.read_bytes()
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        await pilot.press("ctrl+r")
+        await pilot.pause()
+        assert any("No backups" in m for m in _messages(app))
+        for value in ("142", "143"):
+            _field(screen, "serum-sodium").input.value = value
+            await pilot.pause()
+            assert screen.save_now()
+        await pilot.press("ctrl+r")
+        await pilot.pause()
+        listing = app.screen
+        assert isinstance(listing, BackupsScreen) and len(listing.backups) == 2
+        await pilot.press("down", "enter")  # the older one: the file as first opened
+        await pilot.pause()
+        assert isinstance(app.screen, ChoiceScreen)
+        await pilot.click("#answer-restore")
+        await pilot.pause()
+        reopened = app.screen
+        assert isinstance(reopened, CaseScreen) and reopened is not screen
+        assert reopened.case.draws[-1].serum.sodium.canonical == 141
+        assert not reopened.dirty
+    assert demo.read_bytes() == original
+    # What it replaced (the 143 save) is itself kept.
+    assert "143" in list_backups(demo)[0].path.read_text()
+    titles = {c.title for c in app.get_system_commands(screen)}
+    assert {"Backups…", "Unsaved drafts"} <= titles
