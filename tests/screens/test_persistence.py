@@ -5,6 +5,8 @@ from __future__ import annotations
 import shutil
 from pathlib import Path
 
+import pytest
+
 from screens import persistence
 
 
@@ -35,3 +37,44 @@ def test_note_goes_beside_the_case(tmp_path: Path) -> None:
     assert written.read_text() == "line one\n"
     assert persistence.note_path(case_file, tmp_path, "Demo").name == "demo.note-2.txt"
     assert persistence.note_path(None, tmp_path, "New case").parent == tmp_path
+
+
+def test_two_new_cases_with_one_label_never_share_a_file(tmp_path: Path, cases_dir: Path) -> None:
+    case = persistence.read_case(cases_dir / "distal-rta-classic.yaml")
+    first = persistence.new_session(tmp_path, "New case", case)
+    second = persistence.new_session(tmp_path, "New case", case)
+    try:
+        assert first.path.name == "new-case.yaml"
+        assert second.path.name == "new-case-2.yaml"  # the first name is held, not yet a file
+        assert persistence.new_session(tmp_path, "New case", case, keep=first) is first
+    finally:
+        first.close()
+        second.close()
+    (tmp_path / "new-case.yaml").write_text("x")
+    third = persistence.new_session(tmp_path, "New case", case)
+    third.close()
+    assert third.path.name == "new-case-2.yaml"
+
+
+def test_a_session_save_keeps_comments_and_a_second_open_is_refused(
+    tmp_path: Path, cases_dir: Path
+) -> None:
+    src = tmp_path / "b.yaml"
+    shutil.copy(cases_dir / "distal-rta-classic.yaml", src)
+    s = persistence.open_session(src)
+    try:
+        with pytest.raises(persistence.CaseLockedError):
+            persistence.open_session(src)
+        ro = persistence.open_session(src, read_only=True)
+        assert ro.read_only and ro.holder is not None
+        case = s.case.model_copy(deep=True)
+        case.notes = "Invented: changed in a test."
+        result = s.save(case)
+    finally:
+        s.close()
+    assert result.kept_comments and result.backup is not None
+    assert src.read_text().startswith("# Invented demo case")
+    assert persistence.read_case(src).notes == "Invented: changed in a test."
+    [backup] = persistence.backups_of(src)
+    persistence.put_back(backup)
+    assert src.read_bytes() == (cases_dir / "distal-rta-classic.yaml").read_bytes()
