@@ -865,16 +865,16 @@ class CaseScreen(Screen[None]):
     def _session_for(self, path: Path | None, case: Case) -> persistence.CaseSession:
         """The session a save goes through: this case's own, or one for the new file name."""
         s = self.session
-        if path is None and self.path is not None and s is not None:
-            return s
-        if path is None:
+        target = path if path is not None else self.path
+        if target is None:
             # Never saved: the file is named after the label as it is now.
             return persistence.new_session(self.cases_dir, self.case.label, case, keep=s)
-        if s is not None and s.path == Path(path).resolve():
+        target = Path(target)
+        if s is not None and s.path == target.resolve():
             return s
-        if Path(path).exists():
-            return persistence.open_session(Path(path))
-        return persistence.create_session(Path(path), case)
+        if target.exists():
+            return persistence.open_session(target)
+        return persistence.create_session(target, case)
 
     def _show_conflict(
         self,

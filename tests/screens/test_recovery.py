@@ -166,6 +166,31 @@ async def test_a_draft_whose_file_changed_since_restores_onto_a_conflict(demo: P
     assert "seen by renal" in demo.read_text()
 
 
+async def test_a_damaged_draft_of_the_opened_case_can_be_discarded_not_restored(
+    demo: Path,
+) -> None:
+    await _leave_a_draft(demo)
+    draft = draft_path(demo)
+    record = json.loads(draft.read_text())
+    record["checksum"] = "0" * 64  # damaged on disk
+    draft.write_text(json.dumps(record))
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        assert isinstance(app.screen, RecoveryScreen)
+        await pilot.press("l")
+        await pilot.pause()
+        ask = app.screen
+        assert isinstance(ask, ChoiceScreen) and "checksum is wrong" in ask.question
+        assert [k for k, _ in ask.answers] == ["discard", "later"]  # no restore offered
+        await pilot.press("escape")  # same as later: the case opens as on disk
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen) and not screen.dirty
+    [left] = list_drafts()  # kept for later, under a name of its own
+    assert left.problem == "the draft's checksum is wrong" and left.path != draft
+
+
 # --------------------------------------------------------------------- the journal
 
 
