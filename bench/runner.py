@@ -378,6 +378,7 @@ def memory_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]:
     env = pty_bench.bench_env(work / "home-library")
     folder = work / "library"
     generate_library(folder, MEMORY_LIBRARY)
+    pty_bench.make_private(folder)
     runs = [pty_bench.library_run(folder, env, work) for _ in range(plan.memory_reps)]
     failed = [r.ready for r in runs if r.ready != "listed"]
     if failed:
