@@ -10,13 +10,29 @@ from __future__ import annotations
 
 import re
 from pathlib import Path
+from typing import TYPE_CHECKING, Any
 
 from workup.caseio import CaseFileError, load_case, save_case
 from workup.journal import Draft, discard_draft, pending_drafts
 from workup.locking import CaseLockedError, current_holder
 from workup.model import Case
-from workup.session import CaseSession, ReadOnlyError, SaveConflict, SaveResult
 from workup.storage import Backup, atomic_write_text, list_backups, restore_backup
+
+if TYPE_CHECKING:
+    from workup.session import CaseSession, ReadOnlyError, SaveConflict, SaveResult
+
+_FROM_SESSION = ("CaseSession", "ReadOnlyError", "SaveConflict", "SaveResult")
+
+
+def __getattr__(name: str) -> Any:
+    # The session module brings the round-trip YAML writer (ruamel) with it: the library and
+    # the start-up list of drafts do not need it, so it is imported when a case is opened.
+    if name in _FROM_SESSION:
+        from workup import session
+
+        return getattr(session, name)
+    raise AttributeError(f"module {__name__!r} has no attribute {name!r}")
+
 
 __all__ = [
     "Backup",
@@ -60,16 +76,22 @@ def open_session(path: Path, *, read_only: bool = False) -> CaseSession:
     Raises CaseFileError when it cannot be read, CaseLockedError when another running session
     holds it (unless ``read_only``).
     """
+    from workup.session import CaseSession
+
     return CaseSession.open(path, read_only=read_only)
 
 
 def create_session(path: Path, case: Case) -> CaseSession:
     """A session for ``case`` to be saved at ``path``, which must not exist yet."""
+    from workup.session import CaseSession
+
     return CaseSession.create(path, case)
 
 
 def restore_draft(draft: Draft) -> CaseSession:
     """Reopen a left-over draft's case with its edits as the current, unsaved version."""
+    from workup.session import CaseSession
+
     return CaseSession.restore(draft)
 
 
@@ -82,6 +104,8 @@ def new_session(
     app both start as ``new-case.yaml`` otherwise). ``keep`` is returned unchanged when its
     path is that free name.
     """
+    from workup.session import CaseSession
+
     stem = _slug(label)
     n = 1
     while True:
