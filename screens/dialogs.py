@@ -108,6 +108,11 @@ class ConflictScreen(ModalScreen[str]):
         Binding("escape", "choose('cancel')", "Cancel"),
         Binding("left", "app.focus_previous", "Previous", show=False),
         Binding("right", "app.focus_next", "Next", show=False),
+        # The differences scroll whichever button has the focus.
+        Binding("up", "scroll_diff('up')", "Scroll", show=False),
+        Binding("down", "scroll_diff('down')", "Scroll", show=False),
+        Binding("pageup", "scroll_diff('page_up')", "Page up", show=False),
+        Binding("pagedown", "scroll_diff('page_down')", "Page down", show=False),
     ]
 
     def __init__(self, message: str, diff: str) -> None:
@@ -130,7 +135,7 @@ class ConflictScreen(ModalScreen[str]):
                              compact=True)  # fmt: skip
                 yield Button("Cancel", id="answer-cancel", compact=True)
             yield Static(
-                "Tab: next   Up/Down/PgUp/PgDn: scroll the differences   Esc: cancel",
+                "Tab: next answer   Up/Down, PgUp/PgDn: scroll the differences   Esc: cancel",
                 classes="dialog-hint",
             )
         yield Footer()
@@ -145,6 +150,11 @@ class ConflictScreen(ModalScreen[str]):
     def action_choose(self, key: str) -> None:
         """Answer ``key`` (bound to Escape for cancel)."""
         self.dismiss(key)
+
+    def action_scroll_diff(self, how: str) -> None:
+        """Scroll the differences: up, down, page_up or page_down."""
+        box = self.query_one("#conflict-diff", VerticalScroll)
+        getattr(box, f"scroll_{how}")(animate=False)
 
 
 MIN_WIDTH, MIN_HEIGHT = 80, 24

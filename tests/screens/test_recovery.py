@@ -334,6 +334,24 @@ async def test_conflict_save_as_writes_a_new_file_and_leaves_the_other(demo: Pat
     assert "hand edit" in demo.read_text()
 
 
+async def test_a_long_diff_scrolls_by_keys_while_a_button_has_the_focus(tmp_path: Path) -> None:
+    diff = "".join(f"-line {i} on disk\n+line {i} yours\n" for i in range(100))
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        answers: list[str] = []
+        app.push_screen(ConflictScreen("changed", diff), answers.append)
+        await pilot.pause()
+        box = app.screen.query_one("#conflict-diff")
+        assert box.scroll_y == 0 and box.max_scroll_y > 0
+        await pilot.press("pagedown", "down")
+        await pilot.pause()
+        assert box.scroll_y > 0
+        await pilot.press("escape")
+        await pilot.pause()
+        assert answers == ["cancel"]
+
+
 # --------------------------------------------------------------------- locks and privacy
 
 
