@@ -100,8 +100,13 @@ class ConflictScreen(ModalScreen[str]):
 
     DEFAULT_CSS = """
     ConflictScreen { align: center middle; }
-    ConflictScreen .dialog { width: 95%; max-width: 110; height: 90%; }
+    ConflictScreen .wide-dialog {
+        width: 95%; max-width: 110; height: 90%;
+        padding: 0 1; border: thick $accent; background: $panel;
+    }
     ConflictScreen #conflict-diff { height: 1fr; border: round $primary; }
+    ConflictScreen .dialog-buttons { height: auto; margin-top: 1; }
+    ConflictScreen .dialog-buttons Button { margin-right: 2; }
     """
 
     BINDINGS = [
@@ -121,7 +126,8 @@ class ConflictScreen(ModalScreen[str]):
         self.diff = diff
 
     def compose(self) -> ComposeResult:
-        with Vertical(classes="dialog"):
+        # Not the app's fixed-width ".dialog": the differences need the terminal's width.
+        with Vertical(classes="wide-dialog"):
             yield Static(self.message, classes="dialog-question", id="conflict-message")
             yield Static(
                 "- lines: on disk now, would be lost;  + lines: your version",
@@ -131,11 +137,10 @@ class ConflictScreen(ModalScreen[str]):
                 yield Static(diff_text(self.diff) if self.diff else "(no difference in the text)")
             with Horizontal(classes="dialog-buttons"):
                 yield Button("Save as a new file", id="answer-save_as", compact=True)
-                yield Button("Overwrite (disk version kept as a backup)", id="answer-overwrite",
-                             compact=True)  # fmt: skip
+                yield Button("Overwrite (keeps a backup)", id="answer-overwrite", compact=True)
                 yield Button("Cancel", id="answer-cancel", compact=True)
             yield Static(
-                "Tab: next answer   Up/Down, PgUp/PgDn: scroll the differences   Esc: cancel",
+                "Tab: next answer   Up/Down, PgUp/PgDn: scroll   Esc: cancel",
                 classes="dialog-hint",
             )
         yield Footer()

@@ -53,7 +53,10 @@ class RecoveryScreen(ModalScreen[tuple[str, "Draft | None"]]):
 
     DEFAULT_CSS = """
     RecoveryScreen { align: center middle; }
-    RecoveryScreen .dialog { width: 90%; max-width: 100; height: auto; max-height: 90%; }
+    RecoveryScreen .wide-dialog {
+        width: 90%; max-width: 100; height: auto; max-height: 90%;
+        padding: 1 2; border: thick $accent; background: $panel;
+    }
     RecoveryScreen #drafts { height: auto; max-height: 14; }
     """
 
@@ -68,7 +71,7 @@ class RecoveryScreen(ModalScreen[tuple[str, "Draft | None"]]):
         self.drafts = list(drafts)
 
     def compose(self) -> ComposeResult:
-        with Vertical(classes="dialog"):
+        with Vertical(classes="wide-dialog"):
             yield Static(RECOVERY_TITLE, classes="dialog-question", id="recovery-title")
             yield OptionList(id="drafts")
             yield Static(
@@ -155,7 +158,10 @@ class BackupsScreen(ModalScreen["Backup | None"]):
 
     DEFAULT_CSS = """
     BackupsScreen { align: center middle; }
-    BackupsScreen .dialog { width: 90%; max-width: 100; height: auto; max-height: 90%; }
+    BackupsScreen .wide-dialog {
+        width: 90%; max-width: 100; height: auto; max-height: 90%;
+        padding: 1 2; border: thick $accent; background: $panel;
+    }
     BackupsScreen #backups { height: auto; max-height: 10; }
     """
 
@@ -167,7 +173,7 @@ class BackupsScreen(ModalScreen["Backup | None"]):
         self.backups = list(backups)
 
     def compose(self) -> ComposeResult:
-        with Vertical(classes="dialog"):
+        with Vertical(classes="wide-dialog"):
             yield Static(
                 f"Previous versions of {self.case_name} (newest first); each is the file as it "
                 "was just before a save replaced it",
