@@ -297,6 +297,10 @@ async def test_conflict_dialog_shows_the_diff_and_cancel_writes_nothing(demo: Pa
         )
         assert "+notes: Invented scenario for demonstration and tests. Weakness;" in dialog.diff
         assert dialog.query_one("#conflict-diff").can_focus  # scrollable by keys
+        for key in ("save_as", "overwrite", "cancel"):  # every answer is on the screen
+            button = dialog.query_one(f"#answer-{key}")
+            x, y = button.region.center
+            assert dialog.get_widget_at(x, y)[0] is button
         await pilot.press("escape")
         await pilot.pause()
         assert app.screen is screen and screen.dirty
