@@ -60,7 +60,12 @@ def test_a_session_save_keeps_comments_and_a_second_open_is_refused(
     tmp_path: Path, cases_dir: Path
 ) -> None:
     src = tmp_path / "b.yaml"
-    shutil.copy(cases_dir / "distal-rta-classic.yaml", src)
+    # Hand-edited: the notes moved up above the label, out of the order workup writes.
+    lines = (cases_dir / "distal-rta-classic.yaml").read_text().splitlines(keepends=True)
+    notes = next(i for i, line in enumerate(lines) if line.startswith("notes:"))
+    lines.insert(2, lines.pop(notes))
+    src.write_text("".join(lines))
+    hand_edited = src.read_bytes()
     s = persistence.open_session(src)
     try:
         with pytest.raises(persistence.CaseLockedError):
@@ -74,7 +79,12 @@ def test_a_session_save_keeps_comments_and_a_second_open_is_refused(
         s.close()
     assert result.kept_comments and result.backup is not None
     assert src.read_text().startswith("# Invented demo case")
+    assert _top_keys(src.read_text())[:3] == ["schema", "notes", "label"]  # key order kept
     assert persistence.read_case(src).notes == "Invented: changed in a test."
     [backup] = persistence.backups_of(src)
     persistence.put_back(backup)
-    assert src.read_bytes() == (cases_dir / "distal-rta-classic.yaml").read_bytes()
+    assert src.read_bytes() == hand_edited
+
+
+def _top_keys(text: str) -> list[str]:
+    return [line.split(":")[0] for line in text.splitlines() if line[:1].isalpha()]
