@@ -249,6 +249,26 @@ async def test_close_after_discard_deletes_the_draft_and_the_lock(demo: Path) ->
     assert load_case(demo).draws[-1].serum.sodium.canonical == 141
 
 
+@pytest.mark.parametrize("answer", ["save", "discard"])
+async def test_quit_after_save_or_discard_is_a_clean_close(demo: Path, answer: str) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        _field(screen, "serum-sodium").input.value = "146"
+        await pilot.pause()
+        screen.journal_tick()
+        assert draft_path(demo).exists()
+        await pilot.press("ctrl+q")
+        await pilot.pause()
+        await pilot.click(f"#answer-{answer}")
+        await pilot.pause()
+    assert not app.is_running
+    assert list_drafts() == [] and current_holder(demo) is None
+    saved = load_case(demo).draws[-1].serum.sodium.canonical
+    assert saved == (146 if answer == "save" else 141)
+
+
 async def test_a_new_case_is_journaled_and_saved_under_its_label(tmp_path: Path) -> None:
     app = _app(tmp_path)
     async with app.run_test(size=SIZE) as pilot:
