@@ -124,6 +124,24 @@ async def test_later_then_opening_the_file_asks_again_and_discard_deletes(demo: 
     assert list_drafts() == []
 
 
+async def test_drafts_left_for_later_can_be_listed_again_from_the_palette(demo: Path) -> None:
+    await _leave_a_draft(demo)
+    app = _app(demo.parent)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        await pilot.press("l")
+        await pilot.pause()
+        assert type(app.screen).__name__ == "LibraryScreen"
+        [command] = [c for c in app.get_system_commands(app.screen) if c.title == "Unsaved drafts"]
+        command.callback()
+        await pilot.pause()
+        assert isinstance(app.screen, RecoveryScreen)
+        await pilot.press("r")
+        await pilot.pause()
+        assert isinstance(app.screen, CaseScreen) and app.screen.dirty
+        assert app.screen.case.draws[-1].serum.sodium.canonical == 150
+
+
 async def test_a_damaged_draft_is_listed_with_its_problem_and_never_crashes(demo: Path) -> None:
     bad = drafts_folder() / f"{'0' * 24}.draft.json"
     bad.write_text('{"format": 1, "case_path": "/nowhere.yaml", "written": "yesterday"')
