@@ -7,6 +7,7 @@ The demo case is an invented scenario. Re-render after an intended change with
 
 from __future__ import annotations
 
+import shutil
 from datetime import datetime
 from pathlib import Path
 
@@ -15,13 +16,29 @@ import pytest
 from screens.app import build_app
 
 ROOT = Path(__file__).resolve().parents[2]
-CASES = ROOT / "cases"
-DEMO = CASES / "distal-rta-classic.yaml"
+DEMO_NAME = "distal-rta-classic.yaml"
 SIZES = [(80, 24), (120, 40)]
+_FOLDER: list[Path] = []
 
 
-def _app(file: Path | None = DEMO):
-    return build_app(CASES, file, clock=lambda: datetime(2026, 12, 1, 8, 0))
+@pytest.fixture(autouse=True)
+def _private_copy(tmp_path: Path):
+    """Each snapshot opens a private copy of the demo cases: no path, permission or lock of the
+    checkout (a world-readable clone would add a privacy warning naming its absolute path)."""
+    folder = tmp_path / "cases"
+    folder.mkdir(mode=0o700)
+    for src in (ROOT / "cases").glob("*.yaml"):
+        shutil.copy(src, folder / src.name)
+        (folder / src.name).chmod(0o600)
+    _FOLDER[:] = [folder]
+    yield
+
+
+def _app(file: str | None = DEMO_NAME):
+    folder = _FOLDER[0]
+    return build_app(
+        folder, folder / file if file else None, clock=lambda: datetime(2026, 12, 1, 8, 0)
+    )
 
 
 @pytest.mark.parametrize("size", SIZES, ids=lambda s: f"{s[0]}x{s[1]}")
