@@ -144,6 +144,7 @@ class FollowFocus:
     """
 
     ENTER_MOVES = True
+    INLINE_BINDINGS = False
 
     async def _on_key(self, event: events.Key) -> None:
         screen = self.screen  # type: ignore[attr-defined]
@@ -163,10 +164,23 @@ class FollowFocus:
             event.stop()
             event.prevent_default()
             move()
+            return
+        if self.INLINE_BINDINGS:
+            # Editing keys (Backspace, Delete, arrows, Home, End) are bindings, which Textual
+            # runs only after the key has bubbled up; in a burst the characters typed after
+            # them would be inserted first ("141", Backspace ×3, "152" left "141"). Running
+            # the field's own binding here keeps every key in the order it was typed.
+            bindings = self._bindings.key_to_bindings.get(event.key)  # type: ignore[attr-defined]
+            if bindings:
+                event.stop()
+                event.prevent_default()
+                await self.run_action(bindings[0].action)  # type: ignore[attr-defined]
 
 
 class EntryInput(FollowFocus, Input):
     """A form input: Enter and Tab go to the next field, even in a burst of keys."""
+
+    INLINE_BINDINGS = True
 
 
 class EntrySelect(FollowFocus, Select):

@@ -99,6 +99,24 @@ async def test_keys_arriving_in_one_burst_stay_in_their_fields(tmp_path: Path) -
         assert _field(screen, "serum-chloride").input.value == "104"
 
 
+async def test_editing_keys_in_a_burst_keep_their_order(tmp_path: Path) -> None:
+    # Backspaces are bindings, run after the key bubbles up; typed in one burst with digits they
+    # once ran after the digits and deleted them ("141" + Backspace x3 + "152" left "141").
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        sodium = _field(app.screen, "serum-sodium").input
+        sodium.focus()
+        sodium.value = "141"
+        sodium.cursor_position = 3
+        await pilot.pause()
+        for k in ["backspace", "backspace", "backspace", *"152", "left", "left", "delete", "3"]:
+            app.post_message(events.Key(k, k if len(k) == 1 else None))
+        await pilot.pause()
+        assert sodium.value == "132"
+
+
 async def test_impossible_value_is_refused_inline_and_nothing_crashes(demo: Path) -> None:
     app = _app(demo.parent, demo)
     async with app.run_test(size=SIZE) as pilot:
