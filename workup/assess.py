@@ -65,6 +65,23 @@ class Assessment:
         return self.patterns[0] if self.patterns else None
 
 
+STATE_BOUND = frozenset(
+    {
+        "expected_pco2",
+        "expected_pco2_metabolic_alkalosis",
+        "expected_bicarbonate_respiratory_acidosis_acute",
+        "expected_bicarbonate_respiratory_acidosis_chronic",
+        "expected_bicarbonate_respiratory_alkalosis_acute",
+        "expected_bicarbonate_respiratory_alkalosis_chronic",
+        "fe_bicarbonate",
+        "urine_blood_pco2",
+    }
+)
+"""Indices that are not valid by design outside one acid-base state or loading test (the rule of
+another primary disorder; FEHCO3 without a bicarbonate load). Their status stays on screen, but
+they are not repeated as case cautions, which would bury the ones that matter."""
+
+
 def draw_result(case: Case, draw: Draw, settings: Settings) -> DrawResult:
     """Compute the indices and disorders of one draw."""
     x = inputs_for(case, draw, settings)
@@ -104,7 +121,10 @@ def assess(
     draw = case.draw(draw_label)
     current = next(r for r in results if r.label == draw.label)
     cautions = value_cautions(draw) + [
-        r for f in current.findings.values() if f.status.value == "not_valid" for r in f.reasons[:1]
+        r
+        for f in current.findings.values()
+        if f.status.value == "not_valid" and f.id not in STATE_BOUND
+        for r in f.reasons[:1]
     ]
     return Assessment(
         case_label=case.label,

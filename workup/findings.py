@@ -135,7 +135,8 @@ class Disorder:
 
     id: str
     """``normal_gap_metabolic_acidosis``, ``high_gap_metabolic_acidosis``, ``metabolic_alkalosis``,
-    ``respiratory_acidosis`` or ``respiratory_alkalosis``."""
+    ``respiratory_acidosis`` or ``respiratory_alkalosis``; ``metabolic_acidosis`` only when the
+    anion gap cannot be computed, so the gap type is not guessed."""
     name: str
     """Human name."""
     primary: bool
@@ -165,7 +166,7 @@ class PatternCall:
 
     id: str
     """``gi_bicarbonate_loss``, ``proximal_rta``, ``distal_rta``, ``hyperkalemic_distal_rta``,
-    ``hypoaldosteronism`` or ``ckd_acidosis``."""
+    ``hypoaldosteronism``, ``ckd_acidosis`` or ``chloride_load`` (saline)."""
     name: str
     """Human name."""
     verdict: Verdict

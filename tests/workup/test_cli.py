@@ -79,3 +79,16 @@ def test_console_script_runs_in_a_fresh_process() -> None:
     )
     assert out.returncode == 0, out.stderr
     assert json.loads(out.stdout)["case"].startswith("Demo B")
+
+
+def test_rules_of_another_state_are_not_repeated_as_case_cautions(capsys) -> None:
+    # Demo F is a metabolic acidosis: the metabolic-alkalosis rule is not valid by design and
+    # stays on screen with its status, but is not a caution about this case.
+    main(["assess", "cases/ckd-acidosis.yaml", "--json"])
+    out = json.loads(capsys.readouterr().out)
+    assert out["indices"]["expected_pco2_metabolic_alkalosis"]["status"] == "not_valid"
+    assert not any("metabolic alkalosis" in c for c in out["cautions"])
+    # A not-valid index that matters is still a caution (Demo I: urine sodium 8).
+    main(["assess", "cases/gi-loss-low-urine-sodium.yaml", "--json"])
+    out = json.loads(capsys.readouterr().out)
+    assert any("urine sodium 8" in c for c in out["cautions"])
