@@ -4,8 +4,9 @@ from __future__ import annotations
 
 from workup.findings import STATUS_WORD, Finding
 
-# Decimal places by unit: pH to 2, ratios and percents to 1, mmol/L to 1 unless whole.
-_DECIMALS = {"": 2, "%": 1, "mmHg": 0, "mOsm/kg": 0, "mL/min/1.73 m2": 0}
+# Decimal places by unit: pH and unitless ratios to 2, everything else to 1, osmolality and eGFR
+# whole. mmHg keeps one decimal because Winters' band edges fall on halves (28.5–32.5).
+_DECIMALS = {"": 2, "%": 1, "mmHg": 1, "mOsm/kg": 0, "mL/min/1.73 m2": 0}
 
 
 def fmt_number(value: float | None, unit: str = "", decimals: int | None = None) -> str:

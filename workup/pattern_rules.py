@@ -18,9 +18,10 @@ from __future__ import annotations
 from collections.abc import Iterable
 from dataclasses import dataclass, field
 
-from workup.context import Flag
+from workup.context import MEANING, Flag
 from workup.disorders import fmt
 from workup.findings import DrawResult, Evidence, Finding, Status
+from workup.formatting import fmt_number
 from workup.model import LoadingTest
 from workup.settings import Settings
 
@@ -142,9 +143,9 @@ def _unit(f: Finding) -> str:
     return f" {f.unit}" if f.unit else ""
 
 
-def _num(key: str, value: float) -> str:
-    """A reading's number: pH with two decimals, everything else with at most one."""
-    return f"{value:.2f}" if key == "urine_ph" else fmt(round(value, 1))
+def _num(f: Finding) -> str:
+    """A reading's number rounded as everywhere else (app, CLI, note): workup.formatting."""
+    return fmt_number(f.value, f.unit)
 
 
 def _better(new: Reading, old: Reading | None) -> bool:
@@ -163,7 +164,7 @@ def _offer(out: Readings, key: str, f: Finding | None, draw: str) -> None:
         return
     r = Reading(
         key, f.interpretation, f.value, draw, f.id, STATUS_FACTOR[f.status],
-        f"{NAME.get(key, f.name)} {_num(key, f.value)}{_unit(f)} "
+        f"{NAME.get(key, f.name)} {_num(f)}{_unit(f)} "
         f"({draw}{', caution' if f.status is Status.caution else ''})",
     )  # fmt: skip
     if _better(r, out.by_key.get(key)):
@@ -204,7 +205,7 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
         if k is not None:
             word = "hypo" if k < s.potassium_low else "hyper" if k > s.potassium_high else "normal"
             out.by_key["potassium"] = Reading(
-                "potassium", word, k, r.label, None, 1.0, f"serum potassium {fmt(k)} ({r.label})"
+                "potassium", word, k, r.label, None, 1.0, f"serum potassium {fmt_number(k, 'mmol/L')} ({r.label})"
             )
         hco3 = x.serum.get("bicarbonate", x.gas.get("bicarbonate"))
         if hco3 is not None and (
@@ -212,14 +213,15 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
         ):
             out.by_key["bicarbonate"] = Reading(
                 "bicarbonate", "low", hco3, r.label, None, 1.0,
-                f"plasma bicarbonate {fmt(hco3)} ({r.label})",
+                f"plasma bicarbonate {fmt_number(hco3, 'mmol/L')} ({r.label})",
             )  # fmt: skip
         ug, sg = x.urine.get("glucose"), x.serum.get("glucose")
         if ug is not None and sg is not None and sg <= RENAL_GLUCOSE_THRESHOLD:
             word = "present" if ug > GLUCOSURIA_ABOVE else "absent"
             out.by_key["glucosuria"] = Reading(
                 "glucosuria", word, ug, r.label, None, 1.0,
-                f"urine glucose {fmt(round(ug, 1))} mmol/L with plasma glucose {fmt(round(sg, 1))} "
+                f"urine glucose {fmt_number(ug, 'mmol/L')} mmol/L with plasma glucose "
+                f"{fmt_number(sg, 'mmol/L')} "
                 f"({r.label})",
             )  # fmt: skip
     if acid_test_ph:
@@ -352,22 +354,22 @@ def _flag_rules(t: Tally, flags: frozenset[Flag]) -> None:
     }  # fmt: skip
     for flag in sorted(flags, key=str):
         for rule in table.get(flag, []):
-            t.apply(f"context: {flag.value.replace('_', ' ')}", [rule])
+            t.apply(f"history: {MEANING[flag]}", [rule])
     gi = {Flag.diarrhea, Flag.laxatives, Flag.bowel_fistula_or_ostomy, Flag.urinary_diversion}
     if not flags & gi:
         t.apply(
-            "context: no diarrhea, laxatives, fistula or urinary diversion recorded",
+            "history: no diarrhea, laxatives, fistula or urinary diversion recorded",
             [("gi_bicarbonate_loss", -1.0, "hidden laxative use is still possible")],
         )
     if Flag.saline_load not in flags:
-        t.apply("context: no chloride-rich fluid recorded", [("chloride_load", -2.0, "")])
+        t.apply("history: no chloride-rich fluid recorded", [("chloride_load", -2.0, "")])
     t4_causes = {
         Flag.raas_blocker, Flag.diabetes, Flag.potassium_sparing_diuretic, Flag.trimethoprim,
         Flag.calcineurin_inhibitor, Flag.heparin, Flag.nsaid, Flag.known_ckd,
     }  # fmt: skip
     if not flags & t4_causes:
         t.apply(
-            "context: no diabetes, kidney disease or aldosterone-lowering drug recorded",
+            "history: no diabetes, kidney disease or aldosterone-lowering drug recorded",
             [("hypoaldosteronism", -1.0, "most type 4 has one of these")],
         )
 
