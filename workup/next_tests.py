@@ -119,11 +119,20 @@ CATALOGUE: tuple[SuggestedTest, ...] = (
     ),
     SuggestedTest(
         "fanconi_panel",
-        "Fanconi panel: urine glucose with plasma glucose, FEPO4 or TmP/GFR, FE urate, amino "
-        "acids, β2-microglobulin; protein electrophoresis and free light chains",
+        "Fanconi panel: urine glucose with plasma glucose, FEPO4 or TmP/GFR, FE urate",
         "other proximal defects make proximal RTA (Fanconi syndrome) likely",
         {PROX: "present", DIST: "absent", GI: "absent", HYK: "absent", T4: "absent"},
         ("fe_phosphate", "glucosuria"),
+        (PROX,),
+    ),
+    SuggestedTest(
+        "proximal_cause_screen",
+        "Cause of a proximal defect: drug review (tenofovir, ifosfamide, carbonic-anhydrase "
+        "inhibitors), protein electrophoresis and serum free light chains, urine amino acids and "
+        "β2-microglobulin",
+        "finds the cause and the extent of a proximal tubulopathy (common practice)",
+        {PROX: "cause found"},
+        (),
         (PROX,),
     ),
     SuggestedTest(

@@ -205,7 +205,13 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
         if k is not None:
             word = "hypo" if k < s.potassium_low else "hyper" if k > s.potassium_high else "normal"
             out.by_key["potassium"] = Reading(
-                "potassium", word, k, r.label, None, 1.0, f"serum potassium {fmt_number(k, 'mmol/L')} ({r.label})"
+                "potassium",
+                word,
+                k,
+                r.label,
+                None,
+                1.0,
+                f"serum potassium {fmt_number(k, 'mmol/L')} ({r.label})",
             )
         hco3 = x.serum.get("bicarbonate", x.gas.get("bicarbonate"))
         if hco3 is not None and (
@@ -362,7 +368,12 @@ def _flag_rules(t: Tally, flags: frozenset[Flag]) -> None:
             [("gi_bicarbonate_loss", -1.0, "hidden laxative use is still possible")],
         )
     if Flag.saline_load not in flags:
-        t.apply("history: no chloride-rich fluid recorded", [("chloride_load", -2.0, "")])
+        # A dilutional (saline) acidosis is recognised from the fluid chart alone: without a
+        # recorded chloride load the laboratory pattern cannot make it more than unlikely.
+        t.apply(
+            "history: no chloride-rich fluid recorded",
+            [("chloride_load", -4.0, "the acidosis cannot be dilutional without a chloride load")],
+        )
     t4_causes = {
         Flag.raas_blocker, Flag.diabetes, Flag.potassium_sparing_diuretic, Flag.trimethoprim,
         Flag.calcineurin_inhibitor, Flag.heparin, Flag.nsaid, Flag.known_ckd,

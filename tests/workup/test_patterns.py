@@ -339,3 +339,20 @@ def test_acidosis_seen_only_during_a_loading_test_is_not_ranked() -> None:
     assert [d.id for d in a.draws[0].disorders] == ["normal_gap_metabolic_acidosis"]
     assert all(c.verdict is Verdict.unlikely for c in a.patterns)
     assert any("not a steady state" in n for n in a.ranking_notes)
+
+
+def test_proximal_case_suggests_the_cause_screen_and_no_dilutional_acidosis() -> None:
+    # Invented demo case C: proximal RTA with Fanconi features on a tubular toxin. Common
+    # practice: once proximal RTA is likely, look for its cause (drugs, paraprotein) and extent;
+    # a dilutional acidosis needs a recorded chloride load.
+    from pathlib import Path
+
+    from workup.assess import assess
+    from workup.caseio import load_case
+
+    case = load_case(Path(__file__).resolve().parents[2] / "cases" / "proximal-rta-fanconi.yaml")
+    a = assess(case)
+    assert a.patterns[0].id == "proximal_rta"
+    assert a.next_tests[0].id == "proximal_cause_screen"
+    saline = next(p for p in a.patterns if p.id == "chloride_load")
+    assert saline.verdict.value == "unlikely"
