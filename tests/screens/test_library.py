@@ -201,7 +201,14 @@ def test_help_lists_the_search_syntax(folder: Path) -> None:
 
 
 async def _settle(pilot) -> None:
-    await pilot.app.workers.wait_for_complete()
+    # The index is read in a worker started from on_mount; under load the snapshot could be
+    # taken before that worker even starts, so wait until the rows have landed.
+    for _ in range(200):
+        await pilot.app.workers.wait_for_complete()
+        await pilot.pause()
+        screen = pilot.app.screen
+        if isinstance(screen, LibraryScreen) and screen._loaded_once:
+            break
     await pilot.pause()
 
 
