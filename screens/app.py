@@ -56,6 +56,9 @@ class WorkupApp(App[None]):
         theme: str = DEFAULT_THEME,
     ) -> None:
         super().__init__()
+        # Nothing animates: over SSH every animation frame is bytes on the line (tab underlines,
+        # scrolls), and a settled screen comes sooner.
+        self.animation_level = "none"
         self.cases_dir = cases_dir
         self.start_file = file
         self.clock = clock or datetime.now
