@@ -558,7 +558,9 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
         high_gap = pic.gap is not None and pic.gap > s.anion_gap_upper
         if acidemic:
             lead.append(Evidence(f"pH {fmt_ph(ph)}: acidemia confirms a metabolic acidosis"))  # type: ignore[arg-type]
-            detail = "compensation not assessed (no pCO2)"
+            # pCO2 may be present but set aside with an inconsistent gas: say which.
+            missing_part = "gas set aside" if "pco2" in x.gas else "no pCO2"
+            detail = f"compensation not assessed ({missing_part})"
         elif high_gap:
             detail = "compensation not assessed (no usable gas)"
         else:

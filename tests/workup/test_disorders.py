@@ -250,3 +250,26 @@ def test_any_values_give_one_primary_first(ph, pco2, gas_hco3, hco3, na, cl, alb
         assert ds[0].compensation in (None, "appropriate", "insufficient", "excessive")
     ranking = rank([DrawResult("d", x, found, ds)], None, DEFAULTS)
     assert len(ranking.calls) == 7
+
+
+def test_inconsistent_gas_names_why_compensation_is_not_assessed() -> None:
+    # Invented values: pH 7.29 with HCO3 15 and pCO2 27 mmHg (3.6 kPa) disagree by
+    # Henderson–Hasselbalch (computed 7.37), so the gas is set aside, not "missing".
+    from workup.assess import assess
+    from workup.caseio import case_from_data
+
+    case = case_from_data(
+        {
+            "label": "invented",
+            "draws": [
+                {
+                    "label": "a",
+                    "serum": {"sodium": 139, "chloride": 117, "bicarbonate": 15},
+                    "blood_gas": {"ph": 7.29, "pco2": "3.6 kPa"},
+                }
+            ],
+        }
+    )
+    a = assess(case)
+    assert a.indices["henderson_hasselbalch_ph"].status.value == "not_valid"
+    assert a.disorders[0].detail == "compensation not assessed (gas set aside)"
