@@ -546,7 +546,12 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
     if hco3 is None:
         return []
     why = pic.gas_words or "no complete blood gas"
-    common = [Evidence(f"{why}: compensation and respiratory disorders cannot be judged")]
+    common = [
+        Evidence(
+            f"{why}: compensation and respiratory disorders cannot be judged",
+            "henderson_hasselbalch_ph" if pic.gas_words else None,
+        )
+    ]
     if pic.gas_words and "set aside" in pic.gas_words:
         common.append(Evidence("recheck the gas (sample, timing, transcription) before relying "
                                "on an acid-base reading", "henderson_hasselbalch_ph"))  # fmt: skip

@@ -338,3 +338,26 @@ def test_without_a_gas_compensation_is_not_judged_and_no_band_is_given() -> None
         note = _flat(draft_note(a, case, style))
         assert "compensation is not judged" in note
         assert "expected pCO2" not in note
+
+
+def test_a_failed_gas_check_is_explained_once() -> None:
+    # Invented values that fail Henderson–Hasselbalch (pH 7.29, HCO3 15, pCO2 3.6 kPa).
+    from workup.assess import assess
+    from workup.caseio import case_from_data
+    from workup.note import draft_note
+
+    case = case_from_data(
+        {
+            "label": "invented",
+            "draws": [
+                {
+                    "label": "a",
+                    "serum": {"sodium": 139, "chloride": 117, "bicarbonate": 15},
+                    "blood_gas": {"ph": 7.29, "pco2": "3.6 kPa"},
+                }
+            ],
+        }
+    )
+    note = draft_note(assess(case), case, style="full")
+    flat = " ".join(note.split())
+    assert flat.count("the gas values do not fit together") == 1

@@ -191,6 +191,11 @@ def _evidence(ev: tuple[Evidence, ...], c: Context, limit: int | None = None) ->
     out = []
     for e in picked:
         text = ph.tidy(e.text)
+        if e.index == "henderson_hasselbalch_ph":
+            # The failed gas check opens the section in full; its evidence is not quoted twice.
+            for said in c.said:
+                if said and len(said) > 40 and said in text:
+                    text = text.replace(said, "as above")
         lead, sep, why = text.rpartition(": ")
         if sep and len(lead) > LONG_LEAD:
             if c.brief:
