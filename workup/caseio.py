@@ -320,16 +320,44 @@ def _represent_dict(dumper: yaml.SafeDumper, data: dict[str, Any]) -> yaml.Node:
 _FlowDumper.add_representer(dict, _represent_dict)
 
 
+WRAP_AT = 96
+"""Panels longer than this are wrapped, at a comma, under their opening brace."""
+
+
 def dump_case(case: Case) -> str:
     """The case as YAML text that :func:`case_from_text` reads back to an equal case."""
-    return yaml.dump(
+    # Dump unwrapped, then wrap the one-line panels ourselves: PyYAML's own wrapping may break
+    # inside a value ("80\n umol/L"), which reads back the same but is miserable to hand-edit.
+    text = yaml.dump(
         case_to_data(case),
         Dumper=_FlowDumper,
         sort_keys=False,
         allow_unicode=True,
-        width=100,
+        width=1_000_000,
         default_flow_style=False,
     )
+    return "".join(_wrap_flow(line) for line in text.splitlines(keepends=True))
+
+
+def _wrap_flow(line: str) -> str:
+    if len(line) <= WRAP_AT + 1 or ": {" not in line or not line.rstrip().endswith("}"):
+        return line
+    head, _, body = line.partition("{")
+    indent = " " * (len(head) + 1)
+    out, current = [], head + "{"
+    items = body.rstrip().removesuffix("}").split(", ")
+    for i, item in enumerate(items):
+        piece = item + ("}" if i == len(items) - 1 else ",")
+        if len(current) + 1 + len(piece) > WRAP_AT and current.strip() not in (
+            "",
+            head.strip() + " {",
+        ):
+            out.append(current.rstrip())
+            current = indent + piece
+        else:
+            current += ("" if current.endswith("{") else " ") + piece
+    out.append(current)
+    return "\n".join(out) + "\n"
 
 
 def save_case(case: Case, path: str | Path) -> Path:

@@ -179,3 +179,16 @@ def test_latest_draw_with_and_without_utc_offsets() -> None:
     text = GOOD + "  - label: second\n    taken: 2026-12-01T08:15:00+00:00\n"
     case = case_from_text(text)
     assert case.latest_draw().label == "second"
+
+
+def test_written_panels_wrap_at_commas_never_inside_a_value(cases_dir) -> None:
+    import re
+
+    for path in sorted(cases_dir.glob("*.yaml")):
+        text = dump_case(load_case(path))
+        assert max(len(line) for line in text.splitlines()) <= 100, path.name
+        for line in text.splitlines():
+            # A continuation line starts with a key, never with the unit of a split value.
+            stripped = line.strip()
+            if line.startswith("          ") and stripped:
+                assert re.match(r"[a-z_]+: ", stripped), (path.name, line)
