@@ -27,3 +27,18 @@ def user_overrides() -> dict[str, float] | None:
     except (ValueError, OSError) as exc:
         print(f"workup: settings: {exc}", file=sys.stderr)
         return None
+
+
+def assess_or_report(path: Path, draw: str | None):
+    """(case, assessment) of ``path`` at ``draw``, or None after a message on stderr."""
+    from workup.assess import assess
+
+    case = load_or_report(path)
+    overrides = user_overrides()
+    if case is None or overrides is None:
+        return None
+    try:
+        return case, assess(case, draw, overrides)
+    except KeyError as exc:
+        print(f"workup: {path}: {exc.args[0]}", file=sys.stderr)
+        return None

@@ -8,8 +8,8 @@ import sys
 import textwrap
 from pathlib import Path
 
-from workup.assess import Assessment, assess
-from workup.commands._common import load_or_report, user_overrides
+from workup.assess import Assessment
+from workup.commands._common import assess_or_report
 from workup.findings import STATUS_MARK, STATUS_WORD
 from workup.formatting import fmt_value
 
@@ -23,15 +23,10 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
 
 def run(args: argparse.Namespace) -> int:
     """Print the assessment; 2 when the file or draw is bad."""
-    case = load_or_report(args.file)
-    overrides = user_overrides()
-    if case is None or overrides is None:
+    got = assess_or_report(args.file, args.draw)
+    if got is None:
         return 2
-    try:
-        result = assess(case, args.draw, overrides)
-    except KeyError as exc:
-        print(f"workup: {args.file}: {exc.args[0]}", file=sys.stderr)
-        return 2
+    _case, result = got
     if args.json:
         json.dump(result.to_json(), sys.stdout, indent=2, ensure_ascii=False)
         sys.stdout.write("\n")

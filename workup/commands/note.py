@@ -6,8 +6,7 @@ import argparse
 import sys
 from pathlib import Path
 
-from workup.assess import assess
-from workup.commands._common import load_or_report, user_overrides
+from workup.commands._common import assess_or_report
 from workup.note import FORMATS, STYLES, draft_note
 
 
@@ -34,14 +33,9 @@ def add_arguments(p: argparse.ArgumentParser) -> None:
 
 def run(args: argparse.Namespace) -> int:
     """Print the drafted note; 2 when the file or draw is bad."""
-    case = load_or_report(args.file)
-    overrides = user_overrides()
-    if case is None or overrides is None:
+    got = assess_or_report(args.file, args.draw)
+    if got is None:
         return 2
-    try:
-        result = assess(case, args.draw, overrides)
-    except KeyError as exc:
-        print(f"workup: {args.file}: {exc.args[0]}", file=sys.stderr)
-        return 2
+    case, result = got
     sys.stdout.write(draft_note(result, case, args.style, args.fmt))
     return 0
