@@ -6,48 +6,27 @@ Demo cases are invented scenarios (see cases/).
 
 from __future__ import annotations
 
-import shutil
-from datetime import datetime
 from pathlib import Path
 
 import pytest
 from textual import events
 from textual.widgets import Input, Select
 
-from screens.app import build_app
 from screens.case_screen import CaseScreen
 from screens.dialogs import AskScreen, ChoiceScreen, TooSmallScreen
-from screens.entry import ValueField
 from screens.findings_view import IndexTable
 from screens.flags import FlagList
 from screens.help_screen import HelpScreen
 from screens.note_screen import TMUX_HINT, NoteScreen
+from tests.screens.support import CLOCK, SIZE
+from tests.screens.support import field as _field
+from tests.screens.support import make_app as _app
 from workup.assess import assess
 from workup.caseio import load_case
 from workup.context import Flag
 from workup.findings import STATUS_MARK, STATUS_WORD
 from workup.formatting import fmt_value
 from workup.model import LoadingTest
-
-CLOCK = datetime(2026, 12, 1, 8, 0)
-SIZE = (80, 24)
-
-
-def _app(cases: Path, file: Path | None = None):
-    return build_app(cases, file, clock=lambda: CLOCK)
-
-
-@pytest.fixture
-def demo(tmp_path: Path, cases_dir: Path) -> Path:
-    """A private copy of the two-draw distal RTA demo case (invented)."""
-    target = tmp_path / "cases" / "distal.yaml"
-    target.parent.mkdir()
-    shutil.copy(cases_dir / "distal-rta-classic.yaml", target)
-    return target
-
-
-def _field(screen: CaseScreen, fid: str) -> ValueField:
-    return screen.query_one(f"#row-{fid}", ValueField)
 
 
 def _table_rows(screen: CaseScreen) -> list[list[str]]:

@@ -10,45 +10,21 @@ from __future__ import annotations
 
 import json
 import os
-import shutil
-from datetime import datetime
 from pathlib import Path
 
 import pytest
 from textual.widgets import Input, OptionList
 
-from screens.app import build_app
 from screens.case_screen import JOURNAL_SECONDS, CaseScreen
 from screens.dialogs import AskScreen, ChoiceScreen, ConflictScreen
-from screens.entry import ValueField
 from screens.recovery import BackupsScreen, RecoveryScreen
+from tests.screens.support import SIZE
+from tests.screens.support import field as _field
+from tests.screens.support import make_app as _app
 from workup.caseio import load_case
 from workup.journal import draft_path, drafts_folder, list_drafts, pending_drafts, read_draft
 from workup.locking import CaseLock, current_holder, lock_path
 from workup.storage import list_backups
-
-CLOCK = datetime(2026, 12, 1, 8, 0)
-SIZE = (80, 24)
-
-
-def _app(cases: Path, file: Path | None = None):
-    return build_app(cases, file, clock=lambda: CLOCK)
-
-
-@pytest.fixture
-def demo(tmp_path: Path, cases_dir: Path) -> Path:
-    """A private copy (folder 0700, file 0600) of the invented two-draw distal RTA demo case."""
-    folder = tmp_path / "cases"
-    folder.mkdir(mode=0o700)
-    os.chmod(folder, 0o700)
-    target = folder / "distal.yaml"
-    shutil.copy(cases_dir / "distal-rta-classic.yaml", target)
-    os.chmod(target, 0o600)
-    return target
-
-
-def _field(screen: CaseScreen, fid: str) -> ValueField:
-    return screen.query_one(f"#row-{fid}", ValueField)
 
 
 def _messages(app) -> list[str]:
