@@ -23,7 +23,13 @@ from textual.timer import Timer
 from textual.widgets import DataTable, Footer, Input, Static
 
 from screens.messages import NewCase, OpenCase
-from workup.library import SORT_KEYS, LibraryEntry, describe_pending, sort_entries
+from workup.library import (
+    SORT_KEYS,
+    LibraryEntry,
+    describe_pending,
+    leading_cells,
+    sort_entries,
+)
 
 SEARCH_HELP = """Search (filter as you type; every term must hold)
   sicca  "dry eyes"     words in the label, notes or draw labels (any case)
@@ -38,8 +44,11 @@ SEARCH_HELP = """Search (filter as you type; every term must hold)
 Short names: ag uag uog ttkg fehco3 k na cl hco3 ph pco2 uph una uk ucl; or
 any index id (urine_anion_gap) or panel.analyte (urine.ph), in canonical units."""
 
-COLUMNS = ("File", "Case", "Latest draw", "Leading cause", "Verdict", "Pending")
-NARROW_COLUMNS = ("File", "Case", "Latest", "Leading cause", "Verdict")
+COLUMNS = (
+    ("File", 22), ("Case", 26), ("Latest draw", 16), ("Leading cause", 22), ("Verdict", 8),
+    ("Pending", 12),
+)  # fmt: skip
+NARROW_COLUMNS = (("File", 16), ("Case", 19), ("Latest", 10), ("Leading cause", 15), ("Verdict", 8))
 """Below WIDE_AT columns the pending column goes (the preview says it) and cells shorten; at
 WIDE_AT the six columns fit without scrolling sideways."""
 WIDE_AT = 110
@@ -52,6 +61,13 @@ def _cut(text: str, width: int) -> str:
     return text if len(text) <= width else text[: width - 1] + "…"
 
 
+def _add_columns(table: DataTable, narrow: bool) -> None:
+    # Fixed widths (the cells are cut to them): an auto-sized column keeps the widest content it
+    # ever held, so the layout depended on what was shown before.
+    for label, width in NARROW_COLUMNS if narrow else COLUMNS:
+        table.add_column(label, width=width)
+
+
 def _row(e: LibraryEntry, narrow: bool = False) -> tuple[str, ...]:
     """The table cells of one case (narrow: five short cells that fit 80 columns)."""
     if not e.ok:
@@ -59,17 +75,17 @@ def _row(e: LibraryEntry, narrow: bool = False) -> tuple[str, ...]:
         if narrow:
             return (_cut(e.name, 16), _cut(first, 19), "", "DID NOT LOAD", "")
         return (_cut(e.name, 22), _cut(first, 26), "", "DID NOT LOAD", "", "")
-    cause = e.leading_name or e.leading_id or "no cause ranked"
+    cause, verdict = leading_cells(e)
     if narrow:
         when = (e.latest_taken or "undated")[:10]
-        return (_cut(e.name, 16), _cut(e.label, 19), when, _cut(cause, 15), e.verdict or "—")
+        return (_cut(e.name, 16), _cut(e.label, 19), when, _cut(cause, 15), verdict)
     when = (e.latest_taken or "undated").replace("T", " ")
     return (
         _cut(e.name, 22),
         _cut(e.label, 26),
         when,
         _cut(cause, 22),
-        e.verdict or "—",
+        verdict,
         describe_pending(e),
     )
 
@@ -181,7 +197,7 @@ class LibraryScreen(Screen):
     def on_mount(self) -> None:
         self.narrow = self.app.size.width < WIDE_AT
         table = self.query_one(DataTable)
-        table.add_columns(*(NARROW_COLUMNS if self.narrow else COLUMNS))
+        _add_columns(table, self.narrow)
         table.focus()
         self.load()
 
@@ -191,7 +207,7 @@ class LibraryScreen(Screen):
             self.narrow = narrow
             table = self.query_one(DataTable)
             table.clear(columns=True)
-            table.add_columns(*(NARROW_COLUMNS if narrow else COLUMNS))
+            _add_columns(table, narrow)
             self._fill()
 
     def _overrides(self) -> dict[str, float]:

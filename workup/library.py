@@ -546,6 +546,16 @@ def sort_entries(
     return [e for e in out if id(e) not in last] + [e for e in out if id(e) in last]
 
 
+def leading_cells(e: LibraryEntry) -> tuple[str, str]:
+    """(cause, verdict) for a listing row: a best-ranked cause that is unlikely is not named
+    as the leading one (no normal-gap acidosis, or nothing fits)."""
+    if e.leading_id is None:
+        return "no cause ranked", "—"
+    if e.verdict == "unlikely":
+        return "none likely", "—"
+    return e.leading_name or e.leading_id, e.verdict or "—"
+
+
 def describe_leading(e: LibraryEntry) -> str:
     """The leading cause and its verdict in words, e.g. "distal RTA (likely)"."""
     if not e.ok:

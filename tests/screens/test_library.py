@@ -209,7 +209,10 @@ async def _settle(pilot) -> None:
         screen = pilot.app.screen
         if isinstance(screen, LibraryScreen) and screen._loaded_once:
             break
-    await pilot.pause()
+    # The table sizes its columns on a later refresh than the one that shows the rows.
+    for _ in range(3):
+        await pilot.pause()
+        await pilot.wait_for_scheduled_animations()
 
 
 def test_snapshot_80x24(folder: Path, snap_compare) -> None:

@@ -96,3 +96,14 @@ def test_rebuild_discards_the_cache(folder: Path, capsys) -> None:
     first = capsys.readouterr().out
     assert main(["list", str(folder), "--json", "--rebuild"]) == 0
     assert capsys.readouterr().out == first
+
+
+def test_a_case_with_no_likely_cause_names_none_as_leading(capsys) -> None:
+    # Invented demo G: the low bicarbonate is compensation for a respiratory alkalosis, so the
+    # best-ranked cause is unlikely and must not read as the leading cause.
+    from workup.cli import main
+
+    assert main(["list", "cases", "respiratory"]) == 0
+    out = capsys.readouterr().out
+    row = next(line for line in out.splitlines() if line.startswith("respiratory-alk"))
+    assert "none likely" in row and "Bicarbonate loss" not in row

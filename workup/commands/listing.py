@@ -138,7 +138,7 @@ def _cut(text: str, width: int) -> str:
 def render_rows(matches: list) -> str:
     """The matches as a plain-text table with one row per case (and its matched values)."""
     from workup.formatting import fmt_number
-    from workup.library import describe_pending, status_word
+    from workup.library import describe_pending, leading_cells, status_word
 
     width = min(26, max([4, *(len(m.entry.name) for m in matches)]))
     head = (
@@ -154,10 +154,10 @@ def render_rows(matches: list) -> str:
             lines.append(f"{name:<{width}}  DID NOT LOAD: {first}")
             continue
         when = (e.latest_taken or "undated").replace("T", " ")
-        cause = e.leading_name or e.leading_id or "no cause ranked"
+        cause, verdict = leading_cells(e)
         lines.append(
             f"{name:<{width}}  {_cut(e.label, 28):<28}  {when:<16}  {_cut(cause, 28):<28}  "
-            f"{e.verdict or '—':<8}  {describe_pending(e)}"
+            f"{verdict:<8}  {describe_pending(e)}"
         )
         if e.error:
             lines.append(f"{'':<{width}}  ! {e.error}")
