@@ -189,52 +189,18 @@ def terminal_rows(plan: Plan, work: Path, log: Callable[..., None]) -> list[Row]
             "The digit did not reach an input field in the headless check (focus: "
             f"{app_probe['focus_before_digit']}); the bytes are for whatever the key did."
         )
+    # (measure of one run, target, note) per figure, in TERMINAL_FIGURES order.
+    figures = [
+        (lambda r: r.settled_s, Target("ratio", "<=", 1.3), size_note),
+        (lambda r: r.first_frame_s, None, ""),
+        (lambda r: float(r.first_screen_bytes), None, ""),
+        (lambda r: float(r.key_bytes or 0), None, key_note),
+        (lambda r: r.idle_bytes_per_s, None, ""),
+        (lambda r: r.max_rss_mib, None, ""),
+    ]
     rows = [
-        _paired_row(
-            TERMINAL_FIGURES[0][0],
-            "s",
-            [r.settled_s for r in app],
-            [r.settled_s for r in base],
-            name,
-            Target("ratio", "<=", 1.3),
-            note=size_note,
-        ),
-        _paired_row(
-            TERMINAL_FIGURES[1][0],
-            "s",
-            [r.first_frame_s for r in app],
-            [r.first_frame_s for r in base],
-            name,
-        ),
-        _paired_row(
-            TERMINAL_FIGURES[2][0],
-            "bytes",
-            [float(r.first_screen_bytes) for r in app],
-            [float(r.first_screen_bytes) for r in base],
-            name,
-        ),
-        _paired_row(
-            TERMINAL_FIGURES[3][0],
-            "bytes",
-            [float(r.key_bytes or 0) for r in app],
-            [float(r.key_bytes or 0) for r in base],
-            name,
-            note=key_note,
-        ),
-        _paired_row(
-            TERMINAL_FIGURES[4][0],
-            "B/s",
-            [r.idle_bytes_per_s for r in app],
-            [r.idle_bytes_per_s for r in base],
-            name,
-        ),
-        _paired_row(
-            TERMINAL_FIGURES[5][0],
-            "MiB",
-            [r.max_rss_mib for r in app],
-            [r.max_rss_mib for r in base],
-            name,
-        ),
+        _paired_row(title, unit, [m(r) for r in app], [m(r) for r in base], name, target, note)
+        for (title, unit), (m, target, note) in zip(TERMINAL_FIGURES, figures, strict=True)
     ]
     rows[0].extra["probe"] = app_probe
     return rows
