@@ -18,6 +18,7 @@ from __future__ import annotations
 
 from dataclasses import dataclass, field
 from enum import StrEnum
+from typing import Any
 
 # Molar masses in g/mol (IUPAC standard atomic weights, rounded to 0.01).
 MOLAR_MASS = {
@@ -85,11 +86,18 @@ class Analyte:
 
     def unit(self, text: str) -> Unit | None:
         """The unit called ``text`` (case-insensitive, with common spellings), or None."""
+        key = (self.panel, self.key, text)
+        if key in _UNIT_MEMO:
+            return _UNIT_MEMO[key]
         wanted = _norm_unit(text)
+        found = None
         for u in self.units:
             if _norm_unit(u.symbol) == wanted or wanted in (_norm_unit(a) for a in u.aliases):
-                return u
-        return None
+                found = u
+                break
+        if len(_UNIT_MEMO) < 10_000:  # a pure lookup; the bound keeps odd input from growing it
+            _UNIT_MEMO[key] = found
+        return found
 
     def unit_for(self, system: UnitSystem) -> Unit | None:
         """The unit that a bare number means under ``system``."""
@@ -107,6 +115,9 @@ class Analyte:
     def label(self) -> str:
         """A short label naming the panel and analyte, e.g. ``urine.sodium``."""
         return f"{self.panel.value}.{self.key}"
+
+
+_UNIT_MEMO: dict[tuple[Any, str, str], Any] = {}
 
 
 def _norm_unit(text: str) -> str:

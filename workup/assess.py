@@ -14,7 +14,7 @@ from workup import indices as _indices
 from workup import patterns as _patterns
 from workup.analytes import Panel, analyte
 from workup.cautions import CAUTION_LINES
-from workup.findings import Disorder, DrawResult, Finding, NextTest, PatternCall
+from workup.findings import Disorder, DrawResult, Finding, NextTest, PatternCall, Ranking
 from workup.inputs import inputs_for
 from workup.model import Case, Draw, GasSample
 from workup.quantity import unusual
@@ -106,13 +106,28 @@ def value_cautions(draw: Draw) -> list[str]:
     return out
 
 
+def _rank(
+    case: Case, user_overrides: dict[str, float] | None
+) -> tuple[list[DrawResult], Ranking, Settings]:
+    settings = resolve(user_overrides or {}, case.settings)
+    results = [draw_result(case, d, settings) for d in case.draws]
+    return results, _patterns.rank(results, case, settings), settings
+
+
+def rank_case(
+    case: Case, user_overrides: dict[str, float] | None = None
+) -> tuple[list[DrawResult], Ranking]:
+    """Every draw's results and the ranking of causes, without :func:`assess`'s cautions about
+    one draw: what the library index stores for each case (the same numbers and ranking)."""
+    results, ranking, _ = _rank(case, user_overrides)
+    return results, ranking
+
+
 def assess(
     case: Case, draw_label: str | None = None, user_overrides: dict[str, float] | None = None
 ) -> Assessment:
     """Assess ``case``; indices and disorders from ``draw_label`` (default: the latest draw)."""
-    settings = resolve(user_overrides or {}, case.settings)
-    results = [draw_result(case, d, settings) for d in case.draws]
-    ranking = _patterns.rank(results, case, settings)
+    results, ranking, settings = _rank(case, user_overrides)
     if not case.draws:
         return Assessment(
             case.label, None, {}, [], ranking.calls, ranking.next_tests,

@@ -338,7 +338,11 @@ def _loading_kind(text: str) -> str | None:
 def summarize_case(
     case: Any, assess_fn: Callable[..., Any], overrides: dict[str, float]
 ) -> dict[str, Any]:
-    """The index fields of a loaded case (everything but file name, size, mtime and errors)."""
+    """The index fields of a loaded case (everything but file name, size, mtime and errors).
+
+    ``assess_fn(case, overrides)`` returns the draw results and the ranking, as
+    :func:`workup.assess.rank_case` does.
+    """
     usual = _usual_ranges()
     draws = case.draws
     timed = sorted((d.taken for d in draws if d.taken is not None), key=comparable_time)
@@ -393,24 +397,24 @@ def summarize_case(
         "ranking_note": None,
     }
     try:
-        a = assess_fn(case, None, overrides)
+        results, ranking = assess_fn(case, overrides)
     except Exception as exc:  # others' calculators must never stop a listing
         out["error"] = f"the assessment failed: {type(exc).__name__}: {exc}"
     else:
-        for dj, result in zip(draw_json, a.draws, strict=False):
+        for dj, result in zip(draw_json, results, strict=False):
             for fid, f in result.findings.items():
                 dj["v"][fid] = [f.value, f.status.value]
-        lead = a.leading
-        if lead is not None:
+        if ranking.calls:
+            lead = ranking.calls[0]
             out.update(leading_id=lead.id, leading_name=lead.name, verdict=lead.verdict.value)
-        if a.next_tests:
-            first = a.next_tests[0]
+        if ranking.next_tests:
+            first = ranking.next_tests[0]
             done = {d.during.value for d in draws if d.during is not None}
-            kinds = [_loading_kind(f"{t.id} {t.text}") for t in a.next_tests]
+            kinds = [_loading_kind(f"{t.id} {t.text}") for t in ranking.next_tests]
             loading = [k for k in kinds if k is not None and k not in done]
             out.update(pending=True, next_test=first.text, loading_expected=bool(loading))
-        if a.ranking_notes:
-            out["ranking_note"] = a.ranking_notes[0]
+        if ranking.notes:
+            out["ranking_note"] = ranking.notes[0]
     out["draws"] = json.dumps(draw_json, separators=(",", ":"))
     return out
 
@@ -432,7 +436,7 @@ def summarize_file(
     from workup.caseio import CaseFileError
 
     if assess_fn is None:
-        from workup.assess import assess as assess_fn
+        from workup.assess import rank_case as assess_fn
     path = folder / name
     base: dict[str, Any] = {"name": name, "size": size, "mtime_ns": mtime_ns}
     try:
@@ -477,7 +481,12 @@ def summarize_many(
     overrides: dict[str, float],
     workers: int | None = None,
 ) -> Iterable[list[tuple[Any, ...]]]:
-    """Rows for ``items``, in chunks as they finish; a process pool when there are many."""
+    """Rows for ``items``, in chunks as they finish; with a process pool when there are many.
+
+    ``workers`` counts this process: it reads its share of the chunks between storing the
+    others' results, so a pool for two cores is one child. A third process would only compete
+    with the two readers for the cores and hold memory of its own.
+    """
     cpus = os.cpu_count() or 1
     workers = cpus if workers is None else workers
     if workers <= 1 or len(items) < POOL_THRESHOLD or not pool_allowed():
@@ -486,7 +495,8 @@ def summarize_many(
             yield _summarize_chunk(str(folder), items[i : i + 400], overrides)
         return
     import multiprocessing
-    from concurrent.futures import ProcessPoolExecutor, as_completed
+    from collections import deque
+    from concurrent.futures import ProcessPoolExecutor
 
     # fork shares the already-imported core for free (Linux); elsewhere spawn.
     method = "fork" if sys.platform.startswith("linux") else "spawn"
@@ -494,15 +504,26 @@ def summarize_many(
     if method == "fork":
         import workup.assess
         import workup.caseio  # noqa: F401
-    chunk = max(50, min(400, len(items) // (workers * 6) or 1))
+    # Small chunks keep the two sides finishing together; each still costs far more than its
+    # trip through the pool.
+    size = max(25, min(200, len(items) // (workers * 12) or 1))
+    chunks = deque(items[i : i + size] for i in range(0, len(items), size))
+    children = workers - 1
     ctx = multiprocessing.get_context(method)
-    with ProcessPoolExecutor(max_workers=workers, mp_context=ctx) as pool:
-        futures = [
-            pool.submit(_summarize_chunk, str(folder), items[i : i + chunk], overrides)
-            for i in range(0, len(items), chunk)
-        ]
-        for fut in as_completed(futures):
-            yield fut.result()
+    with ProcessPoolExecutor(max_workers=children, mp_context=ctx) as pool:
+        queued: deque[Any] = deque()
+        while chunks or queued:
+            # Keep every child two chunks ahead, so it never waits for this process.
+            while chunks and len(queued) < 2 * children:
+                queued.append(
+                    pool.submit(_summarize_chunk, str(folder), chunks.popleft(), overrides)
+                )
+            while queued and queued[0].done():
+                yield queued.popleft().result()
+            if chunks:
+                yield _summarize_chunk(str(folder), chunks.pop(), overrides)
+            elif queued:
+                yield queued.popleft().result()
 
 
 # --- listing ---------------------------------------------------------------------------------

@@ -94,6 +94,11 @@ class Patient(BaseModel):
         return kg * 0.45359237 if m.group(2).lower().startswith("lb") else kg
 
 
+_READ_MEMO: dict[tuple[Any, ...], Measurement] = {}
+_READ_MEMO_MAX = 50_000
+"""Bound on the memo of read values (a few MB at most)."""
+
+
 class PanelBase(BaseModel):
     """Common behaviour of the three panels: read written values into measurements."""
 
@@ -108,10 +113,22 @@ class PanelBase(BaseModel):
         system = (info.context or {}).get("units")
         if system is not None and not isinstance(system, UnitSystem):
             system = UnitSystem(system) if system in UnitSystem.__members__ else None
+        # Reading is a pure function of these and Measurements are frozen, so a value seen
+        # before is shared: a library of thousands of cases repeats the same few written values.
+        key = (cls.PANEL, info.field_name, type(v), v, system)
         try:
-            return read_value(analyte(cls.PANEL, info.field_name), v, system)
+            return _READ_MEMO[key]
+        except KeyError:
+            pass
+        except TypeError:  # an unhashable value (a list, a mapping): read_value words the error
+            key = None
+        try:
+            m = read_value(analyte(cls.PANEL, info.field_name), v, system)
         except ValueProblem as exc:
             raise ValueError(str(exc)) from None
+        if key is not None and len(_READ_MEMO) < _READ_MEMO_MAX:
+            _READ_MEMO[key] = m
+        return m
 
     def measurements(self) -> dict[str, Measurement]:
         """The values present in this panel, by analyte key, in catalogue order."""

@@ -19,6 +19,8 @@ from workup.caseio import CaseFileError, load_case
 from workup.library import list_library, open_library, sort_entries, summarize_file
 from workup.library_index import LibraryIndex, cache_path, engine_stamp
 
+DEMO = Path(__file__).resolve().parents[2] / "cases"
+
 # Broken files: each must be listed with the loader's own error, never stop the listing.
 BROKEN = {
     "bad-yaml.yaml": "label: [unclosed\n",
@@ -334,16 +336,15 @@ def test_loading_tests_are_recognised_in_suggestions(text: str, kind: str | None
 
 
 def test_a_loading_test_already_drawn_is_not_expected_again(cases_dir: Path) -> None:
-    from workup.assess import Assessment
-    from workup.findings import NextTest
+    from workup.findings import NextTest, Ranking
 
     suggested = [
         NextTest("renin_aldosterone", "Plasma renin, aldosterone", "why"),
         NextTest("bicarbonate_loading_fehco3", "Bicarbonate loading with FEHCO3", "why"),
     ]
 
-    def fixed(case: object, *_a: object) -> Assessment:
-        return Assessment("x", None, {}, [], [], suggested, [], [], [], None)
+    def fixed(case: object, *_a: object) -> tuple[list[object], Ranking]:
+        return [], Ranking([], suggested, [])
 
     drawn = lib.summarize_case(load_case(cases_dir / "distal-rta-classic.yaml"), fixed, {})
     not_drawn = lib.summarize_case(load_case(cases_dir / "ckd-acidosis.yaml"), fixed, {})
@@ -397,3 +398,16 @@ def test_sorting(library: Path, tmp_path: Path) -> None:
     )
     with pytest.raises(ValueError, match="unknown sort key"):
         sort_entries(entries, "size")
+
+
+@pytest.mark.parametrize("name", sorted(p.name for p in DEMO.glob("*.yaml")))
+def test_the_index_stores_what_assess_ranks(name: str) -> None:
+    """The lean entry the index uses gives the very results and ranking of the full assessment."""
+    from workup.assess import assess, rank_case
+
+    case = load_case(DEMO / name)
+    full = assess(case)
+    results, ranking = rank_case(case)
+    assert [r.findings for r in results] == [r.findings for r in full.draws]
+    assert ranking.calls == full.patterns and ranking.calls
+    assert ranking.next_tests == full.next_tests and ranking.notes == full.ranking_notes

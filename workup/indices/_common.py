@@ -97,10 +97,23 @@ def ratio(num: float, den: float) -> float | None:
 
 def fmt(value: float, decimals: int = 1) -> str:
     """A number for a reason sentence: trailing zeros dropped."""
+    key = (value, decimals)
+    text = _FMT_MEMO.get(key)
+    if text is not None:
+        return text
     text = f"{value:.{decimals}f}"
     if "." in text:
         text = text.rstrip("0").rstrip(".")
-    return "0" if text in ("-0", "") else text
+    if text in ("-0", ""):
+        text = "0"
+    # Reasons are built for every index of every draw, mostly from the same few numbers
+    # (settings, limits, common values), so the memo answers most calls.
+    if len(_FMT_MEMO) < 20_000:
+        _FMT_MEMO[key] = text
+    return text
+
+
+_FMT_MEMO: dict[tuple[float, int], str] = {}
 
 
 def bicarbonate(x: DrawInputs) -> tuple[float | None, str | None, str | None]:
