@@ -45,8 +45,8 @@ class LibraryEntry:
 
     name: str
     """The file's path relative to the library folder, with forward slashes."""
-    path: Path
-    """The file's full path."""
+    folder: Path
+    """The library folder the entry was listed from."""
     size: int
     """File size in bytes when it was indexed."""
     mtime_ns: int
@@ -88,6 +88,11 @@ class LibraryEntry:
     file that did not load)."""
     dates: tuple[str, ...] = ()
     """ISO times of every dated draw, oldest first."""
+
+    @property
+    def path(self) -> Path:
+        """The file's full path (made when asked: a listing of thousands needs few of them)."""
+        return self.folder / self.name
 
     def to_json(self) -> dict[str, Any]:
         """The JSON object of ``workup list --json`` (documented in docs/search.md)."""
@@ -159,7 +164,7 @@ def entry_from_row(folder: Path, row: tuple[Any, ...]) -> LibraryEntry:
      verdict, pending, next_test, loading_exp, has_loading, note, text, dates) = row[:21]  # fmt: skip
     return LibraryEntry(
         name=name,
-        path=folder / name,
+        folder=folder,
         size=size,
         mtime_ns=mtime,
         ok=bool(ok),
@@ -506,24 +511,31 @@ def summarize_many(
         import workup.caseio  # noqa: F401
     # Small chunks keep the two sides finishing together; each still costs far more than its
     # trip through the pool.
-    size = max(25, min(200, len(items) // (workers * 12) or 1))
+    size = max(25, min(100, len(items) // (workers * 12) or 1))
     chunks = deque(items[i : i + size] for i in range(0, len(items), size))
     children = workers - 1
     ctx = multiprocessing.get_context(method)
     with ProcessPoolExecutor(max_workers=children, mp_context=ctx) as pool:
-        queued: deque[Any] = deque()
+        queued: deque[tuple[Any, list[tuple[str, int, int]]]] = deque()
         while chunks or queued:
-            # Keep every child two chunks ahead, so it never waits for this process.
-            while chunks and len(queued) < 2 * children:
-                queued.append(
-                    pool.submit(_summarize_chunk, str(folder), chunks.popleft(), overrides)
-                )
-            while queued and queued[0].done():
-                yield queued.popleft().result()
+            while queued and queued[0][0].done():
+                yield queued.popleft()[0].result()
+            # Keep every child several chunks ahead: it is fed only between this process's own
+            # chunks, and a child left waiting is a core lost.
+            while chunks and len(queued) < 4 * children:
+                chunk = chunks.popleft()
+                queued.append((pool.submit(_summarize_chunk, str(folder), chunk, overrides), chunk))
             if chunks:
                 yield _summarize_chunk(str(folder), chunks.pop(), overrides)
             elif queued:
-                yield queued.popleft().result()
+                # Nothing left to take here: take back a queued chunk no child has started yet
+                # rather than wait for it.
+                fut, chunk = queued[-1]
+                if fut.cancel():
+                    queued.pop()
+                    yield _summarize_chunk(str(folder), chunk, overrides)
+                else:
+                    yield queued.popleft()[0].result()
 
 
 # --- listing ---------------------------------------------------------------------------------

@@ -13,7 +13,7 @@ from workup.library import LibraryEntry, list_library
 def _e(name: str, month: str | None, lead: str | None, verdict: str | None, ok: bool = True):
     return LibraryEntry(
         name=name,
-        path=Path(name),
+        folder=Path(),
         size=1,
         mtime_ns=1,
         ok=ok,

@@ -14,7 +14,7 @@ from workup.search import SearchError, parse, search
 def _entry(name: str, **kw: object) -> LibraryEntry:
     base: dict[str, object] = {
         "name": name,
-        "path": Path(name),
+        "folder": Path(),
         "size": 1,
         "mtime_ns": 1,
         "ok": True,
