@@ -1,0 +1,460 @@
+"""A strict, fast reader for the small, regular subset of YAML that case files are written in.
+
+:func:`parse` returns exactly what ``yaml.load(text, Loader=yaml.CSafeLoader)`` returns (same
+types, values and key order), or ``None`` meaning "not sure, use the real loader". It never
+raises and never returns a different value: anything outside the subset it knows is declined.
+
+The reference is PyYAML's behaviour over libyaml (the C loader), which follows the YAML 1.1
+specification (Ben-Kiki, Evans, Ingerson, 2005): implicit typing of plain scalars is not
+re-implemented here but asked of PyYAML's own resolver (``yaml.resolver.Resolver``) and built by
+PyYAML's own ``SafeConstructor`` methods, memoised per scalar text because both are pure
+functions of it. The differential tests in ``tests/workup/test_quickread.py`` are the
+specification of the rest.
+
+The subset: a top-level block mapping at column 0; nested block mappings by indentation; block
+sequences (``- item``, ``- key: value`` with further keys lined up under the first); one-level flow
+mappings ``{k: v}`` and flow sequences ``[a, b]`` as values, possibly continued on following
+lines indented deeper than their key; full-line and trailing `` #`` comments; ``key:`` with
+nothing after it; single-line plain, double-quoted and single-quoted scalars. Keys are plain
+scalars that resolve to ``str``. Declined (``None``): tags, anchors, aliases, block scalars,
+document markers, directives, complex keys, tabs, CR or any non-printable character,
+multi-line scalars, nested flow collections, comments or blank lines inside a flow collection,
+trailing commas, duplicate keys at any level, non-string keys, and anything that fits no rule.
+"""
+
+from __future__ import annotations
+
+import re
+from typing import Any
+
+import yaml
+from yaml.constructor import SafeConstructor
+from yaml.resolver import Resolver
+
+__all__ = ["parse"]
+
+
+class _Decline(Exception):
+    """Internal: the text is outside the subset (or invalid); the caller uses the real loader."""
+
+
+# Characters YAML 1.1 treats as printable, minus the ones this reader never accepts: tab, CR,
+# the extra line breaks NEL (U+0085), LS (U+2028) and PS (U+2029), and a BOM inside the text.
+_UNSUPPORTED_CHAR = re.compile(
+    "[^\n\x20-\x7e\xa0-\u2027\u202a-\ud7ff\ue000-\ufefe\uff00-\ufffd\U00010000-\U0010ffff]"
+)
+
+# A plain scalar may not start with an indicator (YAML 1.1 section 4.1.2); "-" followed by a
+# letter, digit or dot is the one such start accepted here (negative numbers, "-x").
+_START = "(?:[^-?:,\\[\\]{}#&*!|>'\"%@` ]|-[0-9A-Za-z.])"
+_BLOCK_PLAIN = re.compile(_START + ".*")
+# In a flow collection: no flow indicators, no colon, no "?" (libyaml versions differ on it),
+# no quotes and no line break inside the scalar.
+_FLOW_PLAIN = re.compile(_START + "[^,\\[\\]{}#:?'\"\n]*")
+_FLOW_UNSAFE = re.compile("[\\[\\]{}#\"'?]")
+_FLOW_PLAIN_RUN = re.compile("[^,\\[\\]{}#:\n]*")
+_DOUBLE = re.compile(r'"((?:[^"\\]|\\.)*)"')
+_SINGLE = re.compile(r"'((?:[^']|'')*)'")
+_ESCAPE = re.compile(r"\\(x[0-9A-Fa-f]{2}|u[0-9A-Fa-f]{4}|U[0-9A-Fa-f]{8}|.)")
+# The escapes libyaml accepts in a double-quoted scalar (YAML 1.1 section 5.7; "\/" is
+# libyaml's addition), checked one by one against the C loader in the tests.
+_ESCAPES = {
+    "0": "\x00",
+    "a": "\x07",
+    "b": "\x08",
+    "t": "\t",
+    "n": "\n",
+    "v": "\x0b",
+    "f": "\x0c",
+    "r": "\r",
+    "e": "\x1b",
+    " ": " ",
+    '"': '"',
+    "/": "/",
+    "\\": "\\",
+    "N": "\x85",
+    "_": "\xa0",
+    "L": "\u2028",
+    "P": "\u2029",
+}
+_MAX_KEY = 500
+"""libyaml rejects a simple key longer than 1024 characters; keys this long are declined well
+before that."""
+_CACHE_LIMIT = 200_000
+"""Entries per memo before it is emptied, so a long-running process does not grow without end."""
+
+_RESOLVER = Resolver()
+_CONSTRUCTOR = SafeConstructor()
+_BUILD = {
+    "tag:yaml.org,2002:str": None,
+    "tag:yaml.org,2002:null": None,
+    "tag:yaml.org,2002:int": _CONSTRUCTOR.construct_yaml_int,
+    "tag:yaml.org,2002:float": _CONSTRUCTOR.construct_yaml_float,
+    "tag:yaml.org,2002:bool": _CONSTRUCTOR.construct_yaml_bool,
+    "tag:yaml.org,2002:timestamp": _CONSTRUCTOR.construct_yaml_timestamp,
+}
+
+# Memos: each maps a piece of text to what it reads as, or raises. All values are immutable.
+_SCALARS: dict[str, Any] = {}
+_LINES: dict[str, tuple[int, Any, Any]] = {}
+_MAP_ITEMS: dict[str, tuple[str, Any]] = {}
+_SEQ_ITEMS: dict[str, Any] = {}
+
+_SCALAR, _OPEN, _FLOW = 0, 1, 2
+
+
+def parse(text: str) -> Any | None:
+    """What ``yaml.load(text, Loader=CSafeLoader)`` returns, or None to say "use the loader"."""
+    try:
+        return _parse(text)
+    except Exception:  # any surprise means "not sure"; never a wrong value
+        return None
+
+
+def _parse(text: str) -> Any | None:
+    if _UNSUPPORTED_CHAR.search(text) or text.startswith(("---", "...", "%")):
+        return None
+    if "\n---" in text or "\n..." in text:
+        return None
+    lines = text.split("\n")
+    ind: list[int] = []
+    con: list[str | None] = []
+    for line in lines:
+        s = line.lstrip(" ")
+        if not s or s[0] == "#":
+            ind.append(0)
+            con.append(None)
+        else:
+            ind.append(len(line) - len(s))
+            con.append(s.rstrip(" "))
+    n = len(con)
+    i = 0
+    while i < n and con[i] is None:
+        i += 1
+    if i == n or ind[i] != 0:
+        return None  # empty (the loader says None too) or not a mapping at column 0
+    out, i = _block_map(ind, con, i, n, 0)
+    if i != n:
+        return None
+    return out
+
+
+def _skip(con: list[str | None], i: int, n: int) -> int:
+    while i < n and con[i] is None:
+        i += 1
+    return i
+
+
+def _is_dash(c: str) -> bool:
+    return c[0] == "-" and (len(c) == 1 or c[1] == " ")
+
+
+def _block_map(
+    ind: list[int], con: list[str | None], i: int, n: int, indent: int
+) -> tuple[dict[str, Any], int]:
+    out: dict[str, Any] = {}
+    lines_memo = _LINES
+    while True:
+        while i < n and con[i] is None:
+            i += 1
+        if i >= n or ind[i] < indent:
+            return out, i
+        if ind[i] > indent:
+            raise _Decline  # a continuation line or a stray deeper block
+        c = con[i]
+        entry = lines_memo.get(c)  # type: ignore[arg-type]
+        if entry is None:
+            entry = _map_line(c)  # type: ignore[arg-type]
+        kind, key, payload = entry
+        if key in out:
+            raise _Decline
+        i += 1
+        if kind == _SCALAR:
+            out[key] = payload
+        elif kind == _FLOW:
+            out[key], i = _flow(payload, ind, con, i, n, indent)
+        else:
+            j = _skip(con, i, n)
+            if j < n and ind[j] > indent:
+                if _is_dash(con[j]):  # type: ignore[arg-type]
+                    out[key], i = _block_seq(ind, con, j, n, ind[j])
+                else:
+                    out[key], i = _block_map(ind, con, j, n, ind[j])
+            elif j < n and ind[j] == indent and _is_dash(con[j]):  # type: ignore[arg-type]
+                # A sequence may sit at its key's own indentation (as dump_case writes draws:).
+                out[key], i = _block_seq(ind, con, j, n, indent)
+            else:
+                out[key] = None
+
+
+def _block_seq(
+    ind: list[int], con: list[str | None], i: int, n: int, indent: int
+) -> tuple[list[Any], int]:
+    out: list[Any] = []
+    while True:
+        while i < n and con[i] is None:
+            i += 1
+        if i >= n or ind[i] < indent:
+            return out, i
+        if ind[i] > indent:
+            raise _Decline
+        c: str = con[i]  # type: ignore[assignment]
+        if not _is_dash(c):
+            return out, i  # the enclosing block decides whether this line belongs to it
+        if len(c) < 3:
+            raise _Decline  # "-" alone: an item whose block starts on the next line
+        s = c[2:].lstrip(" ")
+        col = indent + len(c) - len(s)
+        first = s[0]
+        if first == "#" or _is_dash(s):
+            raise _Decline
+        if first == "{" or first == "[":
+            value, i = _flow(s, ind, con, i + 1, n, indent)
+        elif first == '"' or first == "'":
+            value = _quoted_line(s)
+            i += 1
+        else:
+            h = s.find(" #")
+            t = s if h < 0 else s[:h].rstrip(" ")
+            if ": " in t or t.endswith(":"):
+                # "- key: value": the item is a mapping whose keys line up with this first one.
+                ind[i] = col
+                con[i] = s
+                value, i = _block_map(ind, con, i, n, col)
+            else:
+                value = _plain(t, _BLOCK_PLAIN)
+                i += 1
+        out.append(value)
+
+
+def _map_line(c: str) -> tuple[int, Any, Any]:
+    """Read one ``key: value`` line (indentation removed): what kind of value, the key, the rest."""
+    k, sep, rest = c.partition(": ")
+    if not sep:
+        if not c.endswith(":"):
+            raise _Decline
+        k, rest = c[:-1], ""
+    key = _key(k)
+    rest = rest.lstrip(" ")
+    if not rest or rest[0] == "#":
+        entry: tuple[int, Any, Any] = (_OPEN, key, None)
+    elif rest[0] == "{" or rest[0] == "[":
+        entry = (_FLOW, key, rest)
+    elif rest[0] == '"' or rest[0] == "'":
+        entry = (_SCALAR, key, _quoted_line(rest))
+    else:
+        h = rest.find(" #")
+        entry = (_SCALAR, key, _plain(rest if h < 0 else rest[:h].rstrip(" "), _BLOCK_PLAIN))
+    _remember(_LINES, c, entry)
+    return entry
+
+
+def _key(k: str) -> str:
+    if not k or len(k) > _MAX_KEY or k[-1] in " :" or " #" in k or k.startswith("..."):
+        raise _Decline
+    key = _plain(k, _BLOCK_PLAIN)
+    if type(key) is not str:
+        raise _Decline  # yes:, null:, 1: and the like are not string keys
+    return key
+
+
+def _plain(t: str, shape: re.Pattern[str]) -> Any:
+    """The value of a one-line plain scalar, as PyYAML's resolver and constructor make it."""
+    if shape is _BLOCK_PLAIN and (": " in t or t.endswith(":") or " #" in t):
+        raise _Decline
+    if not shape.fullmatch(t):
+        raise _Decline
+    try:
+        return _SCALARS[t]
+    except KeyError:
+        pass
+    tag = _RESOLVER.resolve(yaml.ScalarNode, t, (True, False))
+    if tag not in _BUILD:
+        raise _Decline  # "<<" (merge), "=" (value) and anything else unusual
+    build = _BUILD[tag]
+    if build is not None:
+        value = build(yaml.ScalarNode(tag, t))
+    elif tag == "tag:yaml.org,2002:null":
+        value = None
+    else:
+        value = t
+    _remember(_SCALARS, t, value)
+    return value
+
+
+def _remember(memo: dict[str, Any], text: str, value: Any) -> None:
+    if len(memo) >= _CACHE_LIMIT:
+        memo.clear()
+    memo[text] = value
+
+
+def _quoted_line(s: str) -> str:
+    """A quoted scalar that is the whole rest of the line, but for a trailing comment."""
+    value, end = _quoted(s, 0)
+    _tail(s, end)
+    return value
+
+
+def _quoted(s: str, pos: int) -> tuple[str, int]:
+    """The quoted scalar starting at ``s[pos]`` on one line, and the index after it."""
+    if s[pos] == '"':
+        m = _DOUBLE.match(s, pos)
+        if m is None:
+            raise _Decline
+        body = m.group(1)
+        if "\n" in body:
+            raise _Decline
+        return (_unescape(body) if "\\" in body else body), m.end()
+    m = _SINGLE.match(s, pos)
+    if m is None or "\n" in m.group(1):
+        raise _Decline
+    return m.group(1).replace("''", "'"), m.end()
+
+
+def _unescape(body: str) -> str:
+    parts = _ESCAPE.split(body)
+    out = [parts[0]]
+    for j in range(1, len(parts), 2):
+        code = parts[j]
+        if len(code) > 1:
+            point = int(code[1:], 16)
+            if 0xD800 <= point <= 0xDFFF or point > 0x10FFFF:
+                raise _Decline  # libyaml: "found invalid Unicode character escape code"
+            out.append(chr(point))
+        else:
+            char = _ESCAPES.get(code)
+            if char is None:
+                raise _Decline  # unknown escape (libyaml raises)
+            out.append(char)
+        out.append(parts[j + 1])
+    return "".join(out)
+
+
+def _tail(s: str, end: int) -> None:
+    """After a complete value only spaces, or spaces and a comment, may follow on the line."""
+    if end == len(s):
+        return
+    rest = s[end:]
+    if rest[0] != " " or rest.lstrip(" ")[:1] not in ("", "#"):
+        raise _Decline
+
+
+def _flow(
+    s: str, ind: list[int], con: list[str | None], i: int, n: int, indent: int
+) -> tuple[Any, int]:
+    """A flow collection starting at ``s`` (line i-1), continued on deeper lines; (value, next i)."""
+    close = "}" if s[0] == "{" else "]"
+    if close not in s:
+        parts = [s]
+        while True:
+            if i >= n:
+                raise _Decline
+            c = con[i]
+            if c is None or ind[i] <= indent:
+                raise _Decline  # a blank or comment line inside, or a line not indented deeper
+            parts.append(c)
+            i += 1
+            if close in c:
+                break
+        s = "\n".join(parts)
+    end = s.find(close)
+    body = s[1:end]
+    if _FLOW_UNSAFE.search(body) is None:
+        _tail(s, end + 1)
+        if close == "}":
+            return _flow_map_simple(body), i
+        return _flow_seq_simple(body), i
+    value, end = _flow_scan(s, close)
+    _tail(s, end)
+    return value, i
+
+
+def _flow_map_simple(body: str) -> dict[str, Any]:
+    items = body.split(",")
+    if len(items) == 1 and not body.strip(" \n"):
+        return {}
+    out: dict[str, Any] = {}
+    memo = _MAP_ITEMS
+    for item in items:
+        kv = memo.get(item)
+        if kv is None:
+            kv = _flow_map_item(item)
+        out[kv[0]] = kv[1]
+    if len(out) != len(items):
+        raise _Decline  # a duplicate key
+    return out
+
+
+def _flow_map_item(item: str) -> tuple[str, Any]:
+    k, sep, v = item.partition(": ")
+    if not sep:
+        raise _Decline  # "{a}", "{a:1}", "{a:\n1}", an empty item (trailing comma)
+    kv = (_flow_key(k.lstrip(" \n")), _plain(v.strip(" \n"), _FLOW_PLAIN))
+    _remember(_MAP_ITEMS, item, kv)
+    return kv
+
+
+def _flow_key(k: str) -> str:
+    if not k or len(k) > _MAX_KEY or k[-1] == " ":
+        raise _Decline
+    key = _plain(k, _FLOW_PLAIN)
+    if type(key) is not str:
+        raise _Decline
+    return key
+
+
+def _flow_seq_simple(body: str) -> list[Any]:
+    items = body.split(",")
+    if len(items) == 1 and not body.strip(" \n"):
+        return []
+    out: list[Any] = []
+    memo = _SEQ_ITEMS
+    for item in items:
+        try:
+            out.append(memo[item])
+        except KeyError:
+            value = _plain(item.strip(" \n"), _FLOW_PLAIN)
+            _remember(memo, item, value)
+            out.append(value)
+    return out
+
+
+def _flow_scan(s: str, close: str) -> tuple[Any, int]:
+    """A flow collection with quoted scalars, read token by token; (value, index after it)."""
+    is_map = close == "}"
+    out: Any = {} if is_map else []
+    pos = _ws(s, 1)
+    if s[pos] == close:
+        return out, pos + 1
+    while True:
+        if is_map:
+            m = _FLOW_PLAIN_RUN.match(s, pos)
+            key = _flow_key(m.group())  # type: ignore[union-attr]
+            pos = m.end()  # type: ignore[union-attr]
+            if s[pos] != ":" or s[pos + 1] != " " or key in out:
+                raise _Decline
+            pos = _ws(s, pos + 2)
+        if s[pos] == '"' or s[pos] == "'":
+            value, pos = _quoted(s, pos)
+        else:
+            m = _FLOW_PLAIN_RUN.match(s, pos)
+            value = _plain(m.group().rstrip(" "), _FLOW_PLAIN)  # type: ignore[union-attr]
+            pos = m.end()  # type: ignore[union-attr]
+        if is_map:
+            out[key] = value
+        else:
+            out.append(value)
+        pos = _ws(s, pos)
+        if s[pos] == close:
+            return out, pos + 1
+        if s[pos] != ",":
+            raise _Decline
+        pos = _ws(s, pos + 1)
+        if s[pos] == close:
+            raise _Decline  # a trailing comma
+
+
+def _ws(s: str, pos: int) -> int:
+    while s[pos] == " " or s[pos] == "\n":
+        pos += 1
+    return pos
