@@ -80,8 +80,9 @@ _ESCAPES = {
 _MAX_KEY = 500
 """libyaml rejects a simple key longer than 1024 characters; keys this long are declined well
 before that."""
-_CACHE_LIMIT = 200_000
-"""Entries per memo before it is emptied, so a long-running process does not grow without end."""
+_CACHE_LIMIT = 4096
+"""Entries per memo before it is emptied: a library of 10,000 files holds mostly unique lines
+(labels, times), and the memos must not grow with it; the values that repeat come back at once."""
 
 _RESOLVER = Resolver()
 _CONSTRUCTOR = SafeConstructor()
@@ -99,6 +100,7 @@ _SCALARS: dict[str, Any] = {}
 _LINES: dict[str, tuple[int, Any, Any]] = {}
 _MAP_ITEMS: dict[str, tuple[str, Any]] = {}
 _SEQ_ITEMS: dict[str, Any] = {}
+_KEYS: dict[str, str] = {}
 
 _SCALAR, _OPEN, _FLOW = 0, 1, 2
 
@@ -119,14 +121,15 @@ def _parse(text: str) -> Any | None:
     lines = text.split("\n")
     ind: list[int] = []
     con: list[str | None] = []
+    add_ind, add_con = ind.append, con.append
     for line in lines:
         s = line.lstrip(" ")
-        if not s or s[0] == "#":
-            ind.append(0)
-            con.append(None)
+        if s and s[0] != "#":
+            add_ind(len(line) - len(s))
+            add_con(s.rstrip(" ") if s[-1] == " " else s)
         else:
-            ind.append(len(line) - len(s))
-            con.append(s.rstrip(" "))
+            add_ind(0)
+            add_con(None)
     n = len(con)
     i = 0
     while i < n and con[i] is None:
@@ -239,7 +242,7 @@ def _map_line(c: str) -> tuple[int, Any, Any]:
     if not rest or rest[0] == "#":
         entry: tuple[int, Any, Any] = (_OPEN, key, None)
     elif rest[0] == "{" or rest[0] == "[":
-        entry = (_FLOW, key, rest)
+        return (_FLOW, key, rest)  # long and nearly always unique: not worth keeping
     elif rest[0] == '"' or rest[0] == "'":
         entry = (_SCALAR, key, _quoted_line(rest))
     else:
@@ -250,11 +253,15 @@ def _map_line(c: str) -> tuple[int, Any, Any]:
 
 
 def _key(k: str) -> str:
+    key = _KEYS.get(k)
+    if key is not None:
+        return key
     if not k or len(k) > _MAX_KEY or k[-1] in " :" or " #" in k or k.startswith("..."):
         raise _Decline
     key = _plain(k, _BLOCK_PLAIN)
     if type(key) is not str:
         raise _Decline  # yes:, null:, 1: and the like are not string keys
+    _remember(_KEYS, k, key)
     return key
 
 
@@ -344,19 +351,8 @@ def _flow(
 ) -> tuple[Any, int]:
     """A flow collection starting at ``s`` (line i-1), continued on deeper lines; (value, next i)."""
     close = "}" if s[0] == "{" else "]"
-    if close not in s:
-        parts = [s]
-        while True:
-            if i >= n:
-                raise _Decline
-            c = con[i]
-            if c is None or ind[i] <= indent:
-                raise _Decline  # a blank or comment line inside, or a line not indented deeper
-            parts.append(c)
-            i += 1
-            if close in c:
-                break
-        s = "\n".join(parts)
+    while close not in s:
+        s, i = _next_flow_line(s, ind, con, i, n, indent)
     end = s.find(close)
     body = s[1:end]
     if _FLOW_UNSAFE.search(body) is None:
@@ -364,9 +360,25 @@ def _flow(
         if close == "}":
             return _flow_map_simple(body), i
         return _flow_seq_simple(body), i
-    value, end = _flow_scan(s, close)
+    while True:
+        try:
+            value, end = _flow_scan(s, close)
+            break
+        except IndexError:  # the text ran out before the collection closed (a quoted "}")
+            s, i = _next_flow_line(s, ind, con, i, n, indent)
     _tail(s, end)
     return value, i
+
+
+def _next_flow_line(
+    s: str, ind: list[int], con: list[str | None], i: int, n: int, indent: int
+) -> tuple[str, int]:
+    if i >= n:
+        raise _Decline
+    c = con[i]
+    if c is None or ind[i] <= indent:
+        raise _Decline  # a blank or comment line inside, or a line not indented deeper
+    return s + "\n" + c, i + 1
 
 
 def _flow_map_simple(body: str) -> dict[str, Any]:
