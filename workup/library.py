@@ -188,30 +188,46 @@ def entry_from_row(folder: Path, row: tuple[Any, ...]) -> LibraryEntry:
     )
 
 
+# The ``draws`` column stores each draw's numbers as ``{"v": {key: value}, "s": codes}``, with
+# one status letter per value in ``v``'s order: half the JSON of a [value, status] pair each,
+# and a cold build writes thousands of them.
+STATUS_CODE = {
+    ANALYTE_STATUS_MEASURED: "m",
+    ANALYTE_STATUS_UNUSUAL: "u",
+    "ok": "o",
+    "caution": "c",
+    "not_valid": "x",
+    "needs_input": "n",
+}
+"""Stored status → its one-letter code in the index (every Finding status has one)."""
+_STATUS_OF_CODE = {c: s for s, c in STATUS_CODE.items()}
+
+
 def draws_from_json(text: str | None) -> list[DrawValues]:
     """Decode the ``draws`` column of the index."""
     if not text:
         return []
-    return [
-        DrawValues(
-            d["label"],
-            d.get("taken"),
-            d.get("during"),
-            {k: (v[0], v[1]) for k, v in d["v"].items()},
-        )
-        for d in json.loads(text)
-    ]
+    out = []
+    for d in json.loads(text):
+        codes = d["s"]
+        values = {
+            k: (v, _STATUS_OF_CODE[c]) for (k, v), c in zip(d["v"].items(), codes, strict=True)
+        }
+        out.append(DrawValues(d["label"], d.get("taken"), d.get("during"), values))
+    return out
 
 
 # --- reading one file (runs in pool workers) ------------------------------------------------
 
 
 def _read_case(path: Path) -> Any:
-    """Load the case at ``path`` with one YAML pass where that is provably equivalent.
+    """Load the case at ``path`` by the cheapest reader that is provably equivalent.
 
-    A file with ``&``, ``*`` or ``!`` anywhere could hold an anchor, alias or tag, which the
+    First :func:`workup.quickread.parse`, which reads the plain subset case files are written in
+    (or declines), then one libyaml pass (compose, then construct from the same node tree). A
+    file with ``&``, ``*`` or ``!`` anywhere could hold an anchor, alias or tag, which the
     checking loader must judge; so could anything unusual. Those, and every failure or doubt of
-    the lean path, go through :func:`workup.caseio.load_case`, which raises the canonical error.
+    the lean paths, go through :func:`workup.caseio.load_case`, which raises the canonical error.
     """
     from workup import caseio
 
@@ -223,6 +239,18 @@ def _read_case(path: Path) -> Any:
         return caseio.load_case(path)
     try:
         text = raw.decode("utf-8-sig")
+    except UnicodeDecodeError:
+        return caseio.load_case(path)
+    from workup import quickread
+
+    data = quickread.parse(text)
+    if isinstance(data, dict):
+        try:
+            return caseio.case_from_data(data, str(path))
+        except caseio.CaseFileError:
+            # The message must carry line numbers, which only the checking loader's nodes know.
+            return caseio.load_case(path)
+    try:
         loader = _lean_loader()(text)
         try:
             node = loader.get_single_node()
@@ -359,23 +387,21 @@ def summarize_case(
     draw_json = []
     for d in draws:
         parts += [d.label, d.notes or ""]
-        values: dict[str, list[Any]] = {}
+        values: dict[str, float | None] = {}
+        codes: list[str] = []
         for panel in (d.serum, d.blood_gas, d.urine):
             pname = panel.PANEL.value
             for key, m in panel.measurements().items():
                 low, high = usual[pname, key]
-                status = (
-                    ANALYTE_STATUS_MEASURED
-                    if low <= m.canonical <= high
-                    else ANALYTE_STATUS_UNUSUAL
-                )
-                values[f"{pname}.{key}"] = [m.canonical, status]
+                values[f"{pname}.{key}"] = m.canonical
+                codes.append("m" if low <= m.canonical <= high else "u")
         draw_json.append(
             {
                 "label": d.label,
                 "taken": d.taken.isoformat(timespec="minutes") if d.taken else None,
                 "during": d.during.value if d.during else None,
                 "v": values,
+                "s": codes,
             }
         )
     out: dict[str, Any] = {
@@ -407,8 +433,10 @@ def summarize_case(
         out["error"] = f"the assessment failed: {type(exc).__name__}: {exc}"
     else:
         for dj, result in zip(draw_json, results, strict=False):
+            values, codes = dj["v"], dj["s"]
             for fid, f in result.findings.items():
-                dj["v"][fid] = [f.value, f.status.value]
+                values[fid] = f.value
+                codes.append(STATUS_CODE[f.status.value])
         if ranking.calls:
             lead = ranking.calls[0]
             out.update(leading_id=lead.id, leading_name=lead.name, verdict=lead.verdict.value)
@@ -420,6 +448,8 @@ def summarize_case(
             out.update(pending=True, next_test=first.text, loading_expected=bool(loading))
         if ranking.notes:
             out["ranking_note"] = ranking.notes[0]
+    for dj in draw_json:
+        dj["s"] = "".join(dj["s"])
     out["draws"] = json.dumps(draw_json, separators=(",", ":"))
     return out
 

@@ -33,7 +33,7 @@ from workup.library import (
     summarize_many,
 )
 
-INDEX_SCHEMA = 2
+INDEX_SCHEMA = 3
 """Bump when the table layout or the meaning of a column changes."""
 
 _CORE = Path(__file__).resolve().parent

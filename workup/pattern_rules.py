@@ -320,49 +320,58 @@ class Tally:
         self.apply(r.text, rules, r.factor, r.index, r.draw)
 
 
+_FLAG_RULES: dict[Flag, list[Rule]] = {
+    Flag.diarrhea: [("gi_bicarbonate_loss", 2.5, "stool bicarbonate loss")],
+    Flag.laxatives: [("gi_bicarbonate_loss", 2.0, "stool bicarbonate loss")],
+    Flag.bowel_fistula_or_ostomy: [("gi_bicarbonate_loss", 2.5, "intestinal fluid loss")],
+    Flag.urinary_diversion: [("gi_bicarbonate_loss", 2.5, "bowel exchanges urine chloride for bicarbonate")],
+    Flag.proximal_tubule_toxin: [("proximal_rta", 2.0, "a known cause of proximal tubular injury")],
+    Flag.carbonic_anhydrase_inhibitor: [("proximal_rta", 2.0, "blocks proximal bicarbonate reabsorption")],
+    Flag.paraprotein: [("proximal_rta", 1.5, "light chains injure the proximal tubule")],
+    Flag.autoimmune_disease: [("distal_rta", 1.5, "Sjögren's and lupus cause classic distal RTA")],
+    Flag.lithium: [("distal_rta", 1.0, "lithium impairs distal acidification")],
+    Flag.toluene: [("distal_rta", 1.0, "toluene gives a distal-RTA-like picture")],
+    Flag.urinary_obstruction: [("hyperkalemic_distal_rta", 2.0, "obstruction causes a voltage defect")],
+    Flag.sickle_cell: [("hyperkalemic_distal_rta", 1.5, "medullary injury causes a voltage defect")],
+    Flag.potassium_sparing_diuretic: [
+        ("hyperkalemic_distal_rta", 1.0, "amiloride and triamterene block distal sodium channels"),
+        ("hypoaldosteronism", 1.5, "mineralocorticoid antagonism"),
+    ],
+    Flag.trimethoprim: [
+        ("hyperkalemic_distal_rta", 1.0, "blocks distal sodium channels"),
+        ("hypoaldosteronism", 1.0, "aldosterone-resistance picture"),
+    ],
+    Flag.raas_blocker: [("hypoaldosteronism", 1.5, "lowers aldosterone")],
+    Flag.diabetes: [("hypoaldosteronism", 1.5, "hyporeninemic hypoaldosteronism is common in diabetes")],
+    Flag.calcineurin_inhibitor: [("hypoaldosteronism", 1.5, "causes a type 4 picture")],
+    Flag.heparin: [("hypoaldosteronism", 1.0, "suppresses aldosterone synthesis")],
+    Flag.nsaid: [("hypoaldosteronism", 1.0, "lowers renin")],
+    Flag.known_ckd: [
+        ("ckd_acidosis", 1.5, "reduced nephron mass limits ammonium excretion"),
+        ("hypoaldosteronism", 0.5, "type 4 often comes with reduced kidney function"),
+    ],
+    Flag.saline_load: [("chloride_load", 3.0, "chloride-rich fluid dilutes bicarbonate")],
+    Flag.ketoacidosis: [
+        ("chloride_load", 1.0, "ketoanions lost in urine during recovery leave a normal-gap "
+         "component (from memory)"),
+    ],
+}  # fmt: skip
+"""Rules for each context flag (weights in docs/ranking.md); built once, not per case."""
+_GI_FLAGS = frozenset(
+    {Flag.diarrhea, Flag.laxatives, Flag.bowel_fistula_or_ostomy, Flag.urinary_diversion}
+)
+_T4_CAUSES = frozenset({
+    Flag.raas_blocker, Flag.diabetes, Flag.potassium_sparing_diuretic, Flag.trimethoprim,
+    Flag.calcineurin_inhibitor, Flag.heparin, Flag.nsaid, Flag.known_ckd,
+})  # fmt: skip
+
+
 def _flag_rules(t: Tally, flags: frozenset[Flag]) -> None:
     """Context flags: the history a fellow entered (weights in docs/ranking.md)."""
-    table: dict[Flag, list[Rule]] = {
-        Flag.diarrhea: [("gi_bicarbonate_loss", 2.5, "stool bicarbonate loss")],
-        Flag.laxatives: [("gi_bicarbonate_loss", 2.0, "stool bicarbonate loss")],
-        Flag.bowel_fistula_or_ostomy: [("gi_bicarbonate_loss", 2.5, "intestinal fluid loss")],
-        Flag.urinary_diversion: [("gi_bicarbonate_loss", 2.5, "bowel exchanges urine chloride for bicarbonate")],
-        Flag.proximal_tubule_toxin: [("proximal_rta", 2.0, "a known cause of proximal tubular injury")],
-        Flag.carbonic_anhydrase_inhibitor: [("proximal_rta", 2.0, "blocks proximal bicarbonate reabsorption")],
-        Flag.paraprotein: [("proximal_rta", 1.5, "light chains injure the proximal tubule")],
-        Flag.autoimmune_disease: [("distal_rta", 1.5, "Sjögren's and lupus cause classic distal RTA")],
-        Flag.lithium: [("distal_rta", 1.0, "lithium impairs distal acidification")],
-        Flag.toluene: [("distal_rta", 1.0, "toluene gives a distal-RTA-like picture")],
-        Flag.urinary_obstruction: [("hyperkalemic_distal_rta", 2.0, "obstruction causes a voltage defect")],
-        Flag.sickle_cell: [("hyperkalemic_distal_rta", 1.5, "medullary injury causes a voltage defect")],
-        Flag.potassium_sparing_diuretic: [
-            ("hyperkalemic_distal_rta", 1.0, "amiloride and triamterene block distal sodium channels"),
-            ("hypoaldosteronism", 1.5, "mineralocorticoid antagonism"),
-        ],
-        Flag.trimethoprim: [
-            ("hyperkalemic_distal_rta", 1.0, "blocks distal sodium channels"),
-            ("hypoaldosteronism", 1.0, "aldosterone-resistance picture"),
-        ],
-        Flag.raas_blocker: [("hypoaldosteronism", 1.5, "lowers aldosterone")],
-        Flag.diabetes: [("hypoaldosteronism", 1.5, "hyporeninemic hypoaldosteronism is common in diabetes")],
-        Flag.calcineurin_inhibitor: [("hypoaldosteronism", 1.5, "causes a type 4 picture")],
-        Flag.heparin: [("hypoaldosteronism", 1.0, "suppresses aldosterone synthesis")],
-        Flag.nsaid: [("hypoaldosteronism", 1.0, "lowers renin")],
-        Flag.known_ckd: [
-            ("ckd_acidosis", 1.5, "reduced nephron mass limits ammonium excretion"),
-            ("hypoaldosteronism", 0.5, "type 4 often comes with reduced kidney function"),
-        ],
-        Flag.saline_load: [("chloride_load", 3.0, "chloride-rich fluid dilutes bicarbonate")],
-        Flag.ketoacidosis: [
-            ("chloride_load", 1.0, "ketoanions lost in urine during recovery leave a normal-gap "
-             "component (from memory)"),
-        ],
-    }  # fmt: skip
     for flag in sorted(flags, key=str):
-        for rule in table.get(flag, []):
+        for rule in _FLAG_RULES.get(flag, []):
             t.apply(f"history: {MEANING[flag]}", [rule])
-    gi = {Flag.diarrhea, Flag.laxatives, Flag.bowel_fistula_or_ostomy, Flag.urinary_diversion}
-    if not flags & gi:
+    if not flags & _GI_FLAGS:
         t.apply(
             "history: no diarrhea, laxatives, fistula or urinary diversion recorded",
             [("gi_bicarbonate_loss", -1.0, "hidden laxative use is still possible")],
@@ -374,11 +383,7 @@ def _flag_rules(t: Tally, flags: frozenset[Flag]) -> None:
             "history: no chloride-rich fluid recorded",
             [("chloride_load", -4.0, "the acidosis cannot be dilutional without a chloride load")],
         )
-    t4_causes = {
-        Flag.raas_blocker, Flag.diabetes, Flag.potassium_sparing_diuretic, Flag.trimethoprim,
-        Flag.calcineurin_inhibitor, Flag.heparin, Flag.nsaid, Flag.known_ckd,
-    }  # fmt: skip
-    if not flags & t4_causes:
+    if not flags & _T4_CAUSES:
         t.apply(
             "history: no diabetes, kidney disease or aldosterone-lowering drug recorded",
             [("hypoaldosteronism", -1.0, "most type 4 has one of these")],
@@ -644,9 +649,10 @@ QUESTION: dict[str, tuple[tuple[str, ...], str]] = {
 def missing_for(pid: str, rd: Readings) -> tuple[str, ...]:
     """What would bear on pattern ``pid`` but is absent or not valid, in words."""
     out: list[str] = []
+    have = rd.by_key
     for q in MISSING[pid]:
         keys, words = QUESTION[q]
-        if any(rd.get(k) is not None for k in keys):
+        if not have.keys().isdisjoint(keys):  # some reading answers it
             continue
         aside = [rd.set_aside[k] for k in keys if k in rd.set_aside]
         out.append(words + (" — " + "; ".join(aside) if aside else ""))

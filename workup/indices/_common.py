@@ -16,7 +16,7 @@ from workup.inputs import DrawInputs
 _RANK = {Status.ok: 0, Status.caution: 1, Status.not_valid: 2}
 
 
-@dataclass
+@dataclass(slots=True)
 class Judge:
     """Collects the reasons for a finding and keeps the worst status they imply.
 
@@ -71,20 +71,10 @@ def finding(
     """Build a computed Finding from ``meta`` = (id, name, unit, formula, source)."""
     fid, name, unit, formula, source = meta
     return Finding(
-        id=fid,
-        name=name,
-        value=float(value),
-        unit=unit,
-        status=judge.status,
-        reasons=judge.reasons,
-        needs=(),
-        formula=formula,
-        source=source,
-        interpretation=interpretation,
-        low=low,
-        high=high,
-        extra=dict(extra or {}),
-    )
+        fid, name, float(value), unit, judge.status,
+        (*judge.invalid, *judge.cautions, *judge.notes), (), formula, source, interpretation,
+        low, high, dict(extra) if extra else {},
+    )  # fmt: skip
 
 
 def ratio(num: float, den: float) -> float | None:
@@ -159,6 +149,20 @@ class SerumPicture:
 
 def serum_picture(x: DrawInputs) -> SerumPicture:
     """The serum acid-base picture the urine indices are read against."""
+    # Several indices of one draw ask in turn; the inputs of a draw are not changed once built.
+    global _LAST_PICTURE
+    last_x, last = _LAST_PICTURE
+    if last_x is x and last is not None:
+        return last
+    picture = _serum_picture(x)
+    _LAST_PICTURE = (x, picture)
+    return picture
+
+
+_LAST_PICTURE: tuple[DrawInputs | None, SerumPicture | None] = (None, None)
+
+
+def _serum_picture(x: DrawInputs) -> SerumPicture:
     s = x.settings
     hco3, _, _ = bicarbonate(x)
     if hco3 is None:
