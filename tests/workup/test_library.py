@@ -411,3 +411,10 @@ def test_the_index_stores_what_assess_ranks(name: str) -> None:
     assert [r.findings for r in results] == [r.findings for r in full.draws]
     assert ranking.calls == full.patterns and ranking.calls
     assert ranking.next_tests == full.next_tests and ranking.notes == full.ranking_notes
+
+
+def test_every_status_has_its_own_letter_in_the_index() -> None:
+    from workup.findings import Status
+
+    assert {s.value for s in Status} | {"measured", "unusual"} == set(lib.STATUS_CODE)
+    assert len(set(lib.STATUS_CODE.values())) == len(lib.STATUS_CODE)
