@@ -44,20 +44,20 @@ _UNSUPPORTED_CHAR = re.compile(
     "[^\n\x20-\x7e\xa0-\u2027\u202a-\ud7ff\ue000-\ufefe\uff00-\ufffd\U00010000-\U0010ffff]"
 )
 
-# A plain scalar may not start with an indicator (YAML 1.1 section 4.1.2); "-" followed by a
+# A plain scalar may not start with an indicator character (YAML 1.1); "-" followed by a
 # letter, digit or dot is the one such start accepted here (negative numbers, "-x").
 _START = "(?:[^-?:,\\[\\]{}#&*!|>'\"%@` ]|-[0-9A-Za-z.])"
 _BLOCK_PLAIN = re.compile(_START + ".*")
-# In a flow collection: no flow indicators, no colon, no "?" (libyaml versions differ on it),
-# no quotes and no line break inside the scalar.
+# In a flow collection: no flow indicators, no colon, no "?" (older libyaml ended a plain scalar
+# there, from memory), no quotes and no line break inside the scalar.
 _FLOW_PLAIN = re.compile(_START + "[^,\\[\\]{}#:?'\"\n]*")
 _FLOW_UNSAFE = re.compile("[\\[\\]{}#\"'?]")
 _FLOW_PLAIN_RUN = re.compile("[^,\\[\\]{}#:\n]*")
 _DOUBLE = re.compile(r'"((?:[^"\\]|\\.)*)"')
 _SINGLE = re.compile(r"'((?:[^']|'')*)'")
 _ESCAPE = re.compile(r"\\(x[0-9A-Fa-f]{2}|u[0-9A-Fa-f]{4}|U[0-9A-Fa-f]{8}|.)")
-# The escapes libyaml accepts in a double-quoted scalar (YAML 1.1 section 5.7; "\/" is
-# libyaml's addition), checked one by one against the C loader in the tests.
+# The escapes libyaml 0.2 accepts in a double-quoted scalar: YAML 1.1's and "\/" (from YAML 1.2,
+# from memory), each checked against the C loader in the tests.
 _ESCAPES = {
     "0": "\x00",
     "a": "\x07",
