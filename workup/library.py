@@ -19,6 +19,7 @@ from __future__ import annotations
 
 import functools
 import json
+import math
 import os
 import sys
 import threading
@@ -155,11 +156,12 @@ ROW_FIELDS = (
     "text",
     "dates",
     "draws",
+    "numbers",
 )
 
 
 def entry_from_row(folder: Path, row: tuple[Any, ...]) -> LibraryEntry:
-    """A LibraryEntry from an index row (ROW_FIELDS order, ``draws`` left out)."""
+    """A LibraryEntry from an index row (ROW_FIELDS order, ``draws`` and ``numbers`` left out)."""
     (name, size, mtime, ok, error, label, notes, first, latest, latest_draw, n, lid, lname,
      verdict, pending, next_test, loading_exp, has_loading, note, text, dates) = row[:21]  # fmt: skip
     return LibraryEntry(
@@ -188,9 +190,10 @@ def entry_from_row(folder: Path, row: tuple[Any, ...]) -> LibraryEntry:
     )
 
 
-# The ``draws`` column stores each draw's numbers as ``{"v": {key: value}, "s": codes}``, with
-# one status letter per value in ``v``'s order: half the JSON of a [value, status] pair each,
-# and a cold build writes thousands of them.
+# The ``draws`` column holds each draw's label, time, loading test and one status letter per
+# stored value (JSON); the ``numbers`` column holds the values themselves as machine doubles,
+# after the numbers of their names (see _value_names): writing a float as text costs more than
+# the rest of a row, and a cold build writes tens of thousands.
 STATUS_CODE = {
     ANALYTE_STATUS_MEASURED: "m",
     ANALYTE_STATUS_UNUSUAL: "u",
@@ -203,17 +206,75 @@ STATUS_CODE = {
 _STATUS_OF_CODE = {c: s for s, c in STATUS_CODE.items()}
 
 
-def draws_from_json(text: str | None) -> list[DrawValues]:
-    """Decode the ``draws`` column of the index."""
+@functools.lru_cache(maxsize=1)
+def _value_names() -> tuple[tuple[str, ...], dict[str, int]]:
+    """Every name a stored value can have (``panel.analyte``, then each index id) and its number.
+
+    Fixed by the code (the catalogue and the calculators), which the index's engine stamp
+    covers, so every process of a build numbers them alike.
+    """
+    from workup.indices import compute_all
+    from workup.inputs import DrawInputs
+
+    names = [name for _, analytes in _stored_analytes() for _, name, _, _ in analytes]
+    names += [fid for fid in compute_all(DrawInputs()) if fid not in names]
+    return tuple(names), {n: i for i, n in enumerate(names)}
+
+
+def encode_draws(draws: list[dict[str, Any]]) -> tuple[str, bytes]:
+    """The ``draws`` and ``numbers`` columns for draws given as dicts with ``label``, ``taken``,
+    ``during`` and ``v`` (name → (value, status)), in order."""
+    from array import array
+
+    _, number_of = _value_names()
+    keys, nums, heads = array("H"), array("d"), []
+    for d in draws:
+        codes, other = [], {}
+        for name, (value, status) in d["v"].items():
+            i = number_of.get(name)
+            if i is None:  # not a name the code knows (cannot happen today): keep it as JSON
+                other[name] = [value, status]
+                continue
+            keys.append(i)
+            nums.append(math.nan if value is None else value)
+            codes.append(STATUS_CODE[status])
+        head = {
+            "label": d["label"],
+            "taken": d["taken"],
+            "during": d["during"],
+            "s": "".join(codes),
+        }
+        if other:
+            head["x"] = other
+        heads.append(head)
+    return json.dumps(heads, separators=(",", ":")), keys.tobytes() + nums.tobytes()
+
+
+def draws_from_json(text: str | None, numbers: bytes | None = None) -> list[DrawValues]:
+    """Decode the ``draws`` and ``numbers`` columns of the index."""
     if not text:
         return []
-    out = []
-    for d in json.loads(text):
-        codes = d["s"]
-        values = {
-            k: (v, _STATUS_OF_CODE[c]) for (k, v), c in zip(d["v"].items(), codes, strict=True)
-        }
-        out.append(DrawValues(d["label"], d.get("taken"), d.get("during"), values))
+    from array import array
+
+    heads = json.loads(text)
+    total = sum(len(h["s"]) for h in heads)
+    keys, nums = array("H"), array("d")
+    raw = numbers or b""
+    keys.frombytes(raw[: 2 * total])
+    nums.frombytes(raw[2 * total :])
+    if len(keys) != total or len(nums) != total:
+        raise ValueError("the stored numbers do not match the stored draws")
+    names, _ = _value_names()
+    out, at = [], 0
+    for h in heads:
+        values: dict[str, tuple[float | None, str]] = {}
+        for code in h["s"]:
+            v = nums[at]
+            values[names[keys[at]]] = (None if math.isnan(v) else v, _STATUS_OF_CODE[code])
+            at += 1
+        for name, (v, status) in h.get("x", {}).items():
+            values[name] = (v, status)
+        out.append(DrawValues(h["label"], h.get("taken"), h.get("during"), values))
     return out
 
 
@@ -345,10 +406,16 @@ def comparable_time(t: Any) -> Any:
 
 
 @functools.lru_cache(maxsize=1)
-def _usual_ranges() -> dict[tuple[str, str], tuple[float, float]]:
-    from workup.analytes import CATALOGUE
+def _stored_analytes() -> tuple[tuple[str, tuple[tuple[str, str, float, float], ...]], ...]:
+    """For each panel attribute of a draw: (analyte key, stored name, usual low, usual high), in
+    catalogue order (the order the index stores values in)."""
+    from workup.analytes import CATALOGUE, Panel
 
-    return {(p.value, k): a.usual for p, keys in CATALOGUE.items() for k, a in keys.items()}
+    attr = {Panel.serum: "serum", Panel.blood_gas: "blood_gas", Panel.urine: "urine"}
+    return tuple(
+        (attr[p], tuple((k, f"{p.value}.{k}", *a.usual) for k, a in keys.items()))
+        for p, keys in CATALOGUE.items()
+    )
 
 
 # Words that name each loading test in a suggested test's id or text.
@@ -376,7 +443,7 @@ def summarize_case(
     ``assess_fn(case, overrides)`` returns the draw results and the ranking, as
     :func:`workup.assess.rank_case` does.
     """
-    usual = _usual_ranges()
+    stored = _stored_analytes()
     draws = case.draws
     timed = sorted((d.taken for d in draws if d.taken is not None), key=comparable_time)
     try:
@@ -387,21 +454,24 @@ def summarize_case(
     draw_json = []
     for d in draws:
         parts += [d.label, d.notes or ""]
-        values: dict[str, float | None] = {}
-        codes: list[str] = []
-        for panel in (d.serum, d.blood_gas, d.urine):
-            pname = panel.PANEL.value
-            for key, m in panel.measurements().items():
-                low, high = usual[pname, key]
-                values[f"{pname}.{key}"] = m.canonical
-                codes.append("m" if low <= m.canonical <= high else "u")
+        values: dict[str, tuple[float | None, str]] = {}
+        for attr, analytes in stored:
+            panel = getattr(d, attr)
+            for key, name, low, high in analytes:
+                m = getattr(panel, key)
+                if m is not None:
+                    values[name] = (
+                        m.canonical,
+                        ANALYTE_STATUS_MEASURED
+                        if low <= m.canonical <= high
+                        else ANALYTE_STATUS_UNUSUAL,
+                    )
         draw_json.append(
             {
                 "label": d.label,
                 "taken": d.taken.isoformat(timespec="minutes") if d.taken else None,
                 "during": d.during.value if d.during else None,
                 "v": values,
-                "s": codes,
             }
         )
     out: dict[str, Any] = {
@@ -433,10 +503,9 @@ def summarize_case(
         out["error"] = f"the assessment failed: {type(exc).__name__}: {exc}"
     else:
         for dj, result in zip(draw_json, results, strict=False):
-            values, codes = dj["v"], dj["s"]
+            values = dj["v"]
             for fid, f in result.findings.items():
-                values[fid] = f.value
-                codes.append(STATUS_CODE[f.status.value])
+                values[fid] = (f.value, f.status.value)
         if ranking.calls:
             lead = ranking.calls[0]
             out.update(leading_id=lead.id, leading_name=lead.name, verdict=lead.verdict.value)
@@ -448,9 +517,7 @@ def summarize_case(
             out.update(pending=True, next_test=first.text, loading_expected=bool(loading))
         if ranking.notes:
             out["ranking_note"] = ranking.notes[0]
-    for dj in draw_json:
-        dj["s"] = "".join(dj["s"])
-    out["draws"] = json.dumps(draw_json, separators=(",", ":"))
+    out["draws"], out["numbers"] = encode_draws(draw_json)
     return out
 
 

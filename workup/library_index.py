@@ -30,19 +30,24 @@ from workup.library import (
     entry_from_row,
     pool_allowed,
     scan_folder,
+    summarize_file,
     summarize_many,
 )
 
-INDEX_SCHEMA = 3
+INDEX_SCHEMA = 4
 """Bump when the table layout or the meaning of a column changes."""
 
 _CORE = Path(__file__).resolve().parent
-_LIST_COLUMNS = ", ".join(ROW_FIELDS[:-1])
+_LIST_COLUMNS = ", ".join(ROW_FIELDS[:-2])
+_TYPE = {
+    **dict.fromkeys(("n_draws", "pending", "loading_expected", "has_loading"), "INTEGER"),
+    "numbers": "BLOB",
+}
 _CREATE = f"""
 CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
 CREATE TABLE cases (
     name TEXT PRIMARY KEY, size INTEGER NOT NULL, mtime_ns INTEGER NOT NULL, ok INTEGER NOT NULL,
-    {", ".join(f"{f} {'INTEGER' if f in ('n_draws', 'pending', 'loading_expected', 'has_loading') else 'TEXT'}" for f in ROW_FIELDS[4:])}
+    {", ".join(f"{f} {_TYPE.get(f, 'TEXT')}" for f in ROW_FIELDS[4:])}
 );
 """
 
@@ -259,16 +264,37 @@ class LibraryIndex:
         if names is not None and len(names) <= 500:  # SQLite caps the number of parameters
             marks = ", ".join("?" * len(names))
             rows = self.conn.execute(
-                f"SELECT name, draws FROM cases WHERE name IN ({marks})", names
+                f"SELECT name, draws, numbers FROM cases WHERE name IN ({marks})", names
             )
         else:
             wanted = None if names is None else set(names)
             rows = (
                 r
-                for r in self.conn.execute("SELECT name, draws FROM cases WHERE ok=1")
+                for r in self.conn.execute("SELECT name, draws, numbers FROM cases WHERE ok=1")
                 if wanted is None or r[0] in wanted
             )
-        return {n: draws_from_json(d) for n, d in rows}
+        out = {}
+        for n, d, b in rows:
+            try:
+                out[n] = draws_from_json(d, b)
+            except (ValueError, KeyError, TypeError, IndexError):
+                # A damaged row: the file is the source of truth, read it again.
+                out[n] = self._reread_draws(n)
+        return out
+
+    def _reread_draws(self, name: str) -> list[DrawValues]:
+        try:
+            st = (self.folder / name).stat()
+        except OSError:
+            return []
+        row = dict(
+            zip(
+                ROW_FIELDS,
+                summarize_file(self.folder, name, st.st_size, st.st_mtime_ns, self.overrides),
+                strict=True,
+            )
+        )
+        return draws_from_json(row["draws"], row["numbers"])
 
 
 def build_in_helper(folder: Path, location: Path, overrides: dict[str, float]) -> bool:

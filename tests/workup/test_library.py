@@ -310,7 +310,7 @@ def test_summary_carries_the_assessment(cases_dir: Path, tmp_path: Path) -> None
     assert row["ok"] == 1 and row["n_draws"] == 2 and row["has_loading"]
     assert row["leading_id"] == (a.leading.id if a.leading else None)
     assert row["pending"] == bool(a.next_tests)
-    draws = lib.draws_from_json(row["draws"])
+    draws = lib.draws_from_json(row["draws"], row["numbers"])
     assert [d.label for d in draws] == ["baseline", "bicarbonate 3 h"]
     # Every index of every draw is stored with its status, and measured values are marked.
     base = draws[0].values
@@ -418,3 +418,37 @@ def test_every_status_has_its_own_letter_in_the_index() -> None:
 
     assert {s.value for s in Status} | {"measured", "unusual"} == set(lib.STATUS_CODE)
     assert len(set(lib.STATUS_CODE.values())) == len(lib.STATUS_CODE)
+
+
+def test_stored_numbers_round_trip_with_missing_values_and_unknown_names() -> None:
+    draws = [
+        {
+            "label": "a",
+            "taken": "2026-11-20T09:10",
+            "during": None,
+            "v": {
+                "serum.sodium": (139.0, "measured"),
+                "urine_anion_gap": (None, "needs_input"),
+                "ttkg": (2.5, "not_valid"),
+                "made_up_name": (1.5, "caution"),
+            },
+        },
+        {"label": "b", "taken": None, "during": "bicarbonate_loading", "v": {}},
+    ]
+    text, numbers = lib.encode_draws(draws)
+    a, b = lib.draws_from_json(text, numbers)
+    assert a.values == {k: v for k, v in draws[0]["v"].items()}
+    assert (a.label, a.taken, b.label, b.during, b.values) == (
+        "a", "2026-11-20T09:10", "b", "bicarbonate_loading", {}
+    )  # fmt: skip
+    with pytest.raises(ValueError):
+        lib.draws_from_json(text, numbers[:-8])
+
+
+def test_a_damaged_stored_row_is_read_again_from_its_file(library: Path, tmp_path: Path) -> None:
+    cache = tmp_path / "i.sqlite"
+    with open_library(library, cache, workers=1) as index:
+        name = index.entries()[0].name
+        good = index.draws([name])[name]
+        index.conn.execute("UPDATE cases SET numbers = x'00' WHERE name = ?", (name,))
+        assert index.draws([name])[name] == good
