@@ -221,33 +221,53 @@ def _value_names() -> tuple[tuple[str, ...], dict[str, int]]:
     return tuple(names), {n: i for i, n in enumerate(names)}
 
 
+class _Draw:
+    """One draw's stored values while a row is built: numbers of names, values, status letters."""
+
+    __slots__ = ("codes", "head", "keys", "nums", "other")
+
+    def __init__(self, label: str, taken: str | None, during: str | None) -> None:
+        self.head: dict[str, Any] = {"label": label, "taken": taken, "during": during}
+        self.keys: list[int] = []
+        self.nums: list[float] = []
+        self.codes: list[str] = []
+        self.other: dict[str, list[Any]] = {}
+
+    def add(self, name: str, value: float | None, status: str) -> None:
+        i = _value_names()[1].get(name)
+        if i is None:  # not a name the code knows (cannot happen today): keep it as JSON
+            self.other[name] = [value, status]
+            return
+        self.keys.append(i)
+        self.nums.append(math.nan if value is None else value)
+        self.codes.append(STATUS_CODE[status])
+
+
+def _pack(draws: list[_Draw]) -> tuple[str, bytes]:
+    """The ``draws`` and ``numbers`` columns (the one place that lays them out)."""
+    from array import array
+
+    heads = []
+    for d in draws:
+        head = {**d.head, "s": "".join(d.codes)}
+        if d.other:
+            head["x"] = d.other
+        heads.append(head)
+    keys = array("H", [k for d in draws for k in d.keys])
+    nums = array("d", [v for d in draws for v in d.nums])
+    return json.dumps(heads, separators=(",", ":")), keys.tobytes() + nums.tobytes()
+
+
 def encode_draws(draws: list[dict[str, Any]]) -> tuple[str, bytes]:
     """The ``draws`` and ``numbers`` columns for draws given as dicts with ``label``, ``taken``,
     ``during`` and ``v`` (name → (value, status)), in order."""
-    from array import array
-
-    _, number_of = _value_names()
-    keys, nums, heads = array("H"), array("d"), []
+    packed = []
     for d in draws:
-        codes, other = [], {}
+        pd = _Draw(d["label"], d["taken"], d["during"])
         for name, (value, status) in d["v"].items():
-            i = number_of.get(name)
-            if i is None:  # not a name the code knows (cannot happen today): keep it as JSON
-                other[name] = [value, status]
-                continue
-            keys.append(i)
-            nums.append(math.nan if value is None else value)
-            codes.append(STATUS_CODE[status])
-        head = {
-            "label": d["label"],
-            "taken": d["taken"],
-            "during": d["during"],
-            "s": "".join(codes),
-        }
-        if other:
-            head["x"] = other
-        heads.append(head)
-    return json.dumps(heads, separators=(",", ":")), keys.tobytes() + nums.tobytes()
+            pd.add(name, value, status)
+        packed.append(pd)
+    return _pack(packed)
 
 
 def draws_from_json(text: str | None, numbers: bytes | None = None) -> list[DrawValues]:
@@ -451,29 +471,26 @@ def summarize_case(
     except TypeError:  # times with and without a UTC offset in one case cannot be compared
         latest = max(draws, key=lambda d: comparable_time(d.taken)) if timed else draws[-1]
     parts = [case.label, case.notes or ""]
-    draw_json = []
+    packed = []
+    number_of = _value_names()[1]
     for d in draws:
         parts += [d.label, d.notes or ""]
-        values: dict[str, tuple[float | None, str]] = {}
+        pd = _Draw(
+            d.label,
+            d.taken.isoformat(timespec="minutes") if d.taken else None,
+            d.during.value if d.during else None,
+        )
+        keys, nums, codes = pd.keys, pd.nums, pd.codes
         for attr, analytes in stored:
             panel = getattr(d, attr)
             for key, name, low, high in analytes:
                 m = getattr(panel, key)
                 if m is not None:
-                    values[name] = (
-                        m.canonical,
-                        ANALYTE_STATUS_MEASURED
-                        if low <= m.canonical <= high
-                        else ANALYTE_STATUS_UNUSUAL,
-                    )
-        draw_json.append(
-            {
-                "label": d.label,
-                "taken": d.taken.isoformat(timespec="minutes") if d.taken else None,
-                "during": d.during.value if d.during else None,
-                "v": values,
-            }
-        )
+                    c = m.canonical
+                    keys.append(number_of[name])
+                    nums.append(c)
+                    codes.append("m" if low <= c <= high else "u")
+        packed.append(pd)
     out: dict[str, Any] = {
         "label": case.label,
         "notes": case.notes or "",
@@ -502,10 +519,9 @@ def summarize_case(
     except Exception as exc:  # others' calculators must never stop a listing
         out["error"] = f"the assessment failed: {type(exc).__name__}: {exc}"
     else:
-        for dj, result in zip(draw_json, results, strict=False):
-            values = dj["v"]
+        for pd, result in zip(packed, results, strict=False):
             for fid, f in result.findings.items():
-                values[fid] = (f.value, f.status.value)
+                pd.add(fid, f.value, f.status.value)
         if ranking.calls:
             lead = ranking.calls[0]
             out.update(leading_id=lead.id, leading_name=lead.name, verdict=lead.verdict.value)
@@ -517,7 +533,7 @@ def summarize_case(
             out.update(pending=True, next_test=first.text, loading_expected=bool(loading))
         if ranking.notes:
             out["ranking_note"] = ranking.notes[0]
-    out["draws"], out["numbers"] = encode_draws(draw_json)
+    out["draws"], out["numbers"] = _pack(packed)
     return out
 
 

@@ -230,6 +230,10 @@ def expected_pco2_metabolic_alkalosis(x: DrawInputs) -> Finding:
     )  # fmt: skip
 
 
+_RESPIRATORY_FORMULA: dict[tuple[float, float], str] = {}
+"""Formula text by coefficients (four fixed pairs)."""
+
+
 def _respiratory(
     x: DrawInputs,
     fid: str,
@@ -242,8 +246,11 @@ def _respiratory(
     unit = "mmol/L"
     s = x.settings
     k_lo, k_hi = coeffs
-    k_text = fmt(k_lo, 2) if k_lo == k_hi else f"{fmt(k_lo, 2)}–{fmt(k_hi, 2)}"
-    formula = f"expected HCO3 = normal HCO3 + {k_text} × (pCO2 − normal pCO2) ± band"
+    formula = _RESPIRATORY_FORMULA.get(coeffs)
+    if formula is None:
+        k_text = fmt(k_lo, 2) if k_lo == k_hi else f"{fmt(k_lo, 2)}–{fmt(k_hi, 2)}"
+        formula = f"expected HCO3 = normal HCO3 + {k_text} × (pCO2 − normal pCO2) ± band"
+        _RESPIRATORY_FORMULA[coeffs] = formula
     hco3, _, note = bicarbonate(x)
     need = [] if hco3 is not None else ["serum.bicarbonate"]
     if "pco2" not in x.gas:

@@ -7,6 +7,8 @@ delivery and without unmeasured anions, cations or osmoles. Each failed conditio
 
 from __future__ import annotations
 
+from typing import Any
+
 from workup.context import GI_LOSS, Flag
 from workup.findings import Finding, missing
 from workup.indices._common import Judge, finding, fmt, ketones_present, ratio, serum_picture
@@ -203,7 +205,23 @@ def urine_anion_gap(x: DrawInputs) -> Finding:
 
 
 def _uog(x: DrawInputs) -> tuple[float | None, list[str], Judge]:
-    """The urine osmolal gap, its missing inputs, and a judge holding its validity."""
+    """The urine osmolal gap, its missing inputs, and a judge holding its validity.
+
+    Three indices of a draw ask in turn (the inputs of a draw are not changed once built), so
+    the last answer is kept; each caller gets its own copies to add to.
+    """
+    global _LAST_UOG
+    last_x, gap, need, j = _LAST_UOG
+    if last_x is not x:
+        gap, need, j = _uog_of(x)
+        _LAST_UOG = (x, gap, need, j)
+    return gap, list(need), Judge(j.status, list(j.invalid), list(j.cautions), list(j.notes))
+
+
+_LAST_UOG: tuple[Any, Any, Any, Any] = (None, None, None, None)
+
+
+def _uog_of(x: DrawInputs) -> tuple[float | None, list[str], Judge]:
     need = [f"urine.{k}" for k in ("osmolality", "sodium", "potassium") if k not in x.urine]
     urea = x.urea_mmol("urine")
     if urea is None:
