@@ -107,19 +107,20 @@ def value_cautions(draw: Draw) -> list[str]:
 
 
 def _rank(
-    case: Case, user_overrides: dict[str, float] | None
+    case: Case, user_overrides: dict[str, float] | None, evidence: bool = True
 ) -> tuple[list[DrawResult], Ranking, Settings]:
     settings = resolve(user_overrides or {}, case.settings)
     results = [draw_result(case, d, settings) for d in case.draws]
-    return results, _patterns.rank(results, case, settings), settings
+    return results, _patterns.rank(results, case, settings, evidence), settings
 
 
 def rank_case(
     case: Case, user_overrides: dict[str, float] | None = None
 ) -> tuple[list[DrawResult], Ranking]:
-    """Every draw's results and the ranking of causes, without :func:`assess`'s cautions about
-    one draw: what the library index stores for each case (the same numbers and ranking)."""
-    results, ranking, _ = _rank(case, user_overrides)
+    """What the library index stores for each case: every draw's results and the ranking of
+    causes, with the same numbers, order, verdicts, tests and notes as :func:`assess`, but
+    without the cautions about one draw and without each call's evidence in words."""
+    results, ranking, _ = _rank(case, user_overrides, evidence=False)
     return results, ranking
 
 

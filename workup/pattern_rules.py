@@ -305,15 +305,35 @@ class Tally:
     """Pattern id → evidence for."""
     against: dict[str, list[Evidence]] = field(default_factory=lambda: {p: [] for p in PATTERNS})
     """Pattern id → evidence against."""
+    weights_only: bool = False
+    """Keep only the weights (in ``support_w``/``against_w``), not the evidence in words: all a
+    caller needs that keeps just the order and the verdicts (the library index)."""
+    support_w: dict[str, list[float]] = field(default_factory=lambda: {p: [] for p in PATTERNS})
+    """Pattern id → weights for (``weights_only``)."""
+    against_w: dict[str, list[float]] = field(default_factory=lambda: {p: [] for p in PATTERNS})
+    """Pattern id → weights against (``weights_only``)."""
 
     def apply(
         self, text: str, rules: Iterable[Rule], factor: float = 1.0,
         index: str | None = None, draw: str | None = None,
     ) -> None:  # fmt: skip
         """Add ``text`` + each rule's reason to its pattern with weight × ``factor``."""
+        if self.weights_only:
+            for pid, w, _why in rules:
+                (self.support_w if w > 0 else self.against_w)[pid].append(abs(w) * factor)
+            return
         for pid, w, why in rules:
             ev = Evidence(f"{text}: {why}" if why else text, index, draw, abs(w) * factor)
             (self.support if w > 0 else self.against)[pid].append(ev)
+
+    def weights(self, pid: str) -> tuple[list[float], list[float]]:
+        """The weights for and against ``pid``, heaviest first (the order they are summed in)."""
+        if self.weights_only:
+            sup, ag = self.support_w[pid], self.against_w[pid]
+        else:
+            sup = [e.weight for e in self.support[pid]]
+            ag = [e.weight for e in self.against[pid]]
+        return sorted(sup, reverse=True), sorted(ag, reverse=True)
 
     def reading(self, r: Reading, rules: Iterable[Rule]) -> None:
         """Apply rules to a reading, with its reliability, index and draw."""
@@ -390,9 +410,11 @@ def _flag_rules(t: Tally, flags: frozenset[Flag]) -> None:
         )
 
 
-def judge(rd: Readings, s: Settings) -> tuple[Tally, AmmoniumCall | None]:
+def judge(
+    rd: Readings, s: Settings, weights_only: bool = False
+) -> tuple[Tally, AmmoniumCall | None]:
     """Apply every rule to the readings; returns the tally and the ammonium call."""
-    t = Tally()
+    t = Tally(weights_only=weights_only)
     _flag_rules(t, rd.context)
     nh4 = ammonium(rd)
     if nh4 is not None:

@@ -23,10 +23,11 @@ DECISIVE = 3.0
 """A single piece of evidence against of at least this weight rules out "likely"."""
 
 
-def _verdict(score: float, against: list[Evidence]) -> Verdict:
+def _verdict(score: float, against: list[float]) -> Verdict:
+    """The verdict for a net weight and the weights against."""
     if score <= UNLIKELY_AT:
         return Verdict.unlikely
-    if score >= LIKELY_AT and not any(e.weight >= DECISIVE for e in against):
+    if score >= LIKELY_AT and not any(w >= DECISIVE for w in against):
         return Verdict.likely
     return Verdict.possible
 
@@ -64,11 +65,13 @@ def _no_acidosis_note(draws: list[DrawResult]) -> str:
             + "; ".join(parts) + ".")  # fmt: skip
 
 
-def rank(draws: list[DrawResult], case: Any, settings: Settings) -> Ranking:
+def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool = True) -> Ranking:
     """Judge each candidate cause on the whole case; best first.
 
     With no normal-gap metabolic acidosis in any draw (outside loading tests) every cause is
-    unlikely and ``notes`` says why.
+    unlikely and ``notes`` says why. With ``evidence=False`` the calls carry no evidence in
+    words and no missing inputs (their order, scores, verdicts, the tests and notes are the
+    same): what the library index keeps, at a fraction of the cost.
     """
     context = getattr(case, "context", ()) or ()
     rd = gather(draws, context, settings)
@@ -81,14 +84,18 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings) -> Ranking:
         ]  # fmt: skip
         return Ranking(calls, [], [why])
 
-    tally, nh4 = judge(rd, settings)
+    tally, nh4 = judge(rd, settings, weights_only=not evidence)
     calls = []
     for order, (pid, name) in enumerate(PATTERNS.items()):
-        sup = sorted(tally.support[pid], key=lambda e: -e.weight)
-        ag = sorted(tally.against[pid], key=lambda e: -e.weight)
-        score = sum(e.weight for e in sup) - sum(e.weight for e in ag)
-        call = PatternCall(pid, name, _verdict(score, ag), score, tuple(sup), tuple(ag),
-                           missing_for(pid, rd))  # fmt: skip
+        sup_w, ag_w = tally.weights(pid)
+        score = sum(sup_w) - sum(ag_w)
+        if evidence:
+            sup = sorted(tally.support[pid], key=lambda e: -e.weight)
+            ag = sorted(tally.against[pid], key=lambda e: -e.weight)
+            call = PatternCall(pid, name, _verdict(score, ag_w), score, tuple(sup), tuple(ag),
+                               missing_for(pid, rd))  # fmt: skip
+        else:
+            call = PatternCall(pid, name, _verdict(score, ag_w), score)
         calls.append((order, call))
     calls.sort(key=lambda t: (-t[1].score, t[0]))
     ranked = [c for _, c in calls]

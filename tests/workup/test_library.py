@@ -402,15 +402,33 @@ def test_sorting(library: Path, tmp_path: Path) -> None:
 
 @pytest.mark.parametrize("name", sorted(p.name for p in DEMO.glob("*.yaml")))
 def test_the_index_stores_what_assess_ranks(name: str) -> None:
-    """The lean entry the index uses gives the very results and ranking of the full assessment."""
+    """The lean entry the index uses gives the results and ranking of the full assessment."""
     from workup.assess import assess, rank_case
 
     case = load_case(DEMO / name)
     full = assess(case)
     results, ranking = rank_case(case)
     assert [r.findings for r in results] == [r.findings for r in full.draws]
-    assert ranking.calls == full.patterns and ranking.calls
+
+    def kept(calls: list) -> list:
+        return [(c.id, c.name, c.verdict, c.score) for c in calls]
+
+    # The index keeps the order, scores and verdicts, not each call's evidence in words.
+    assert kept(ranking.calls) == kept(full.patterns) and ranking.calls
     assert ranking.next_tests == full.next_tests and ranking.notes == full.ranking_notes
+
+
+def test_the_index_ranks_generated_cases_as_assess_does(tmp_path: Path) -> None:
+    from workup.assess import assess, rank_case
+
+    for path in generate_library(tmp_path, 120, seed=11):
+        case = load_case(path)
+        full = assess(case)
+        _, ranking = rank_case(case)
+        assert [(c.id, c.verdict, c.score) for c in ranking.calls] == [
+            (c.id, c.verdict, c.score) for c in full.patterns
+        ], path.name
+        assert ranking.next_tests == full.next_tests and ranking.notes == full.ranking_notes
 
 
 def test_every_status_has_its_own_letter_in_the_index() -> None:
