@@ -94,17 +94,28 @@ class Finding:
 
 def missing(id: str, name: str, unit: str, needs: list[str], formula: str, source: str) -> Finding:
     """A finding that cannot be computed until ``needs`` are entered."""
-    return Finding(
-        id=id,
-        name=name,
-        value=None,
-        unit=unit,
-        status=Status.needs_input,
-        reasons=("enter " + ", ".join(needs) + " to compute it",),
-        needs=tuple(needs),
-        formula=formula,
-        source=source,
-    )
+    key = (id, name, unit, tuple(needs), formula, source)
+    found = _MISSING.get(key)
+    if found is None:
+        found = Finding(
+            id=id,
+            name=name,
+            value=None,
+            unit=unit,
+            status=Status.needs_input,
+            reasons=("enter " + ", ".join(needs) + " to compute it",),
+            needs=tuple(needs),
+            formula=formula,
+            source=source,
+        )
+        # Findings are frozen, so the same missing-input finding is shared by every draw that
+        # lacks the same inputs (most draws lack the same few); the bound stops odd growth.
+        if len(_MISSING) < 4096:
+            _MISSING[key] = found
+    return found
+
+
+_MISSING: dict[tuple[Any, ...], Finding] = {}
 
 
 class Verdict(StrEnum):

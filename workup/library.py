@@ -519,9 +519,18 @@ def summarize_case(
     except Exception as exc:  # others' calculators must never stop a listing
         out["error"] = f"the assessment failed: {type(exc).__name__}: {exc}"
     else:
+        nan = math.nan
         for pd, result in zip(packed, results, strict=False):
+            keys, nums, codes = pd.keys, pd.nums, pd.codes
             for fid, f in result.findings.items():
-                pd.add(fid, f.value, f.status.value)
+                i = number_of.get(fid)
+                if i is None:
+                    pd.add(fid, f.value, f.status.value)
+                    continue
+                v = f.value
+                keys.append(i)
+                nums.append(nan if v is None else v)
+                codes.append(STATUS_CODE[f.status])  # a StrEnum member looks up as its value
         if ranking.calls:
             lead = ranking.calls[0]
             out.update(leading_id=lead.id, leading_name=lead.name, verdict=lead.verdict.value)
