@@ -602,6 +602,18 @@ def pool_allowed() -> bool:
     return threading.active_count() == 1
 
 
+def _guided_chunks(items: list[Any], workers: int, size: int = 100) -> list[list[Any]]:
+    """``items`` in chunks of ``size`` that shrink towards the end, so that every process
+    finishes within a few files of the others; even the smallest costs far more than its trip
+    through the pool."""
+    out, i, n = [], 0, len(items)
+    while i < n:
+        step = max(8, min(size, (n - i) // (4 * workers)))
+        out.append(items[i : i + step])
+        i += step
+    return out
+
+
 def summarize_many(
     folder: Path,
     items: list[tuple[str, int, int]],
@@ -631,10 +643,7 @@ def summarize_many(
     if method == "fork":
         import workup.assess
         import workup.caseio  # noqa: F401
-    # Small chunks keep the two sides finishing together; each still costs far more than its
-    # trip through the pool.
-    size = max(25, min(100, len(items) // (workers * 12) or 1))
-    chunks = deque(items[i : i + size] for i in range(0, len(items), size))
+    chunks = deque(_guided_chunks(items, workers))
     children = workers - 1
     ctx = multiprocessing.get_context(method)
     with ProcessPoolExecutor(max_workers=children, mp_context=ctx) as pool:
@@ -648,7 +657,7 @@ def summarize_many(
                 chunk = chunks.popleft()
                 queued.append((pool.submit(_summarize_chunk, str(folder), chunk, overrides), chunk))
             if chunks:
-                yield _summarize_chunk(str(folder), chunks.pop(), overrides)
+                yield _summarize_chunk(str(folder), chunks.popleft(), overrides)
             elif queued:
                 # Nothing left to take here: take back a queued chunk no child has started yet
                 # rather than wait for it.

@@ -165,6 +165,8 @@ class LibraryIndex:
         self.location = location
         """The index file, or None when it had to be kept in memory (cache not writable)."""
         self._rebuilt = rebuilt
+        self._fresh: dict[str, tuple[Any, ...]] | None = None
+        """Listing rows of the last refresh, when it read every file itself."""
 
     @classmethod
     def open(
@@ -237,9 +239,14 @@ class LibraryIndex:
             self._write(
                 lambda c: c.executemany("DELETE FROM cases WHERE name=?", [(n,) for n in gone])
             )
+        fresh: dict[str, tuple[Any, ...]] = {}
         if todo:
             for rows in summarize_many(self.folder, todo, self.overrides, workers):
                 self._write(lambda c, rows=rows: c.executemany(insert, rows))
+                for r in rows:
+                    fresh[r[0]] = r[:-2]
+        # When this process read every file, the listing needs nothing back from the database.
+        self._fresh = fresh if len(fresh) == len(on_disk) else None
         read = max(read_by_helper, len(todo))
         stats = RefreshStats(read, len(gone), len(on_disk) - read, self._rebuilt)
         self._rebuilt = False
@@ -256,6 +263,9 @@ class LibraryIndex:
 
     def entries(self) -> list[LibraryEntry]:
         """Every indexed case, by file name."""
+        if self._fresh is not None:
+            fresh = self._fresh
+            return [entry_from_row(self.folder, fresh[n]) for n in sorted(fresh)]
         rows = self.conn.execute(f"SELECT {_LIST_COLUMNS} FROM cases ORDER BY name")
         return [entry_from_row(self.folder, r) for r in rows]
 

@@ -470,3 +470,13 @@ def test_a_damaged_stored_row_is_read_again_from_its_file(library: Path, tmp_pat
         good = index.draws([name])[name]
         index.conn.execute("UPDATE cases SET numbers = x'00' WHERE name = ?", (name,))
         assert index.draws([name])[name] == good
+
+
+def test_a_cold_listing_equals_the_listing_read_back_from_the_index(
+    library: Path, tmp_path: Path
+) -> None:
+    cache = tmp_path / "i.sqlite"
+    (library / "broken.yaml").write_text("label: [unclosed\n", encoding="utf-8")
+    cold = list_library(library, cache, workers=1)  # rows straight from the files just read
+    warm = list_library(library, cache, workers=1)  # rows read back from SQLite
+    assert cold == warm and any(e.ok for e in cold) and any(not e.ok for e in cold)
