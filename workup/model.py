@@ -110,12 +110,13 @@ class PanelBase(BaseModel):
     def _read(cls, v: Any, info: ValidationInfo) -> Any:
         if v is None or isinstance(v, Measurement) or info.field_name == "sample":
             return v
-        system = (info.context or {}).get("units")
-        if system is not None and not isinstance(system, UnitSystem):
+        ctx = info.context
+        system = ctx.get("units") if ctx else None
+        if system is not None and system.__class__ is not UnitSystem:
             system = UnitSystem(system) if system in UnitSystem.__members__ else None
         # Reading is a pure function of these and Measurements are frozen, so a value seen
         # before is shared: a library of thousands of cases repeats the same few written values.
-        key = (cls.PANEL, info.field_name, type(v), v, system)
+        key = (cls.PANEL, info.field_name, v.__class__, v, system)
         try:
             return _READ_MEMO[key]
         except KeyError:

@@ -191,15 +191,18 @@ def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
         return []
     top = lead[0].id
     scored: list[tuple[float, int, NextTest]] = []
+    pairs = [(a.id, b.id, 1.0 / (1.0 + abs(a.score - b.score))) for a, b in combinations(lead, 2)]
+    answered = rd.by_key.keys()
     for order, spec in enumerate(CATALOGUE):
-        if spec.done_by and not rd.by_key.keys().isdisjoint(spec.done_by):  # already answered
+        if spec.done_by and not answered.isdisjoint(spec.done_by):  # already answered
             continue
         use, split = 0.0, set()
-        for a, b in combinations(lead, 2):
-            ea, eb = spec.signature.get(a.id), spec.signature.get(b.id)
+        sig = spec.signature
+        for a, b, closeness in pairs:
+            ea, eb = sig.get(a), sig.get(b)
             if ea is not None and eb is not None and ea != eb:
-                use += 1.0 / (1.0 + abs(a.score - b.score))
-                split |= {a.id, b.id}
+                use += closeness
+                split |= {a, b}
         if top in spec.confirms:
             use += CONFIRM_BONUS
             split.add(top)

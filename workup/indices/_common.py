@@ -87,8 +87,10 @@ def ratio(num: float, den: float) -> float | None:
 
 def fmt(value: float, decimals: int = 1) -> str:
     """A number for a reason sentence: trailing zeros dropped."""
-    key = (value, decimals)
-    text = _FMT_MEMO.get(key)
+    memo = _FMT_MEMO.get(decimals)
+    if memo is None:
+        memo = _FMT_MEMO[decimals] = {}
+    text = memo.get(value)
     if text is not None:
         return text
     text = f"{value:.{decimals}f}"
@@ -98,12 +100,13 @@ def fmt(value: float, decimals: int = 1) -> str:
         text = "0"
     # Reasons are built for every index of every draw, mostly from the same few numbers
     # (settings, limits, common values), so the memo answers most calls.
-    if len(_FMT_MEMO) < 20_000:
-        _FMT_MEMO[key] = text
+    if len(memo) < 20_000:
+        memo[value] = text
     return text
 
 
-_FMT_MEMO: dict[tuple[float, int], str] = {}
+_FMT_MEMO: dict[int, dict[float, str]] = {}
+"""Decimals → value → text."""
 
 
 def bicarbonate(x: DrawInputs) -> tuple[float | None, str | None, str | None]:
