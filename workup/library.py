@@ -23,6 +23,7 @@ import math
 import os
 import sys
 import threading
+from array import array
 from collections.abc import Callable, Iterable
 from dataclasses import dataclass, field
 from pathlib import Path
@@ -245,17 +246,19 @@ class _Draw:
 
 def _pack(draws: list[_Draw]) -> tuple[str, bytes]:
     """The ``draws`` and ``numbers`` columns (the one place that lays them out)."""
-    from array import array
-
     heads = []
+    keys, nums = array("H"), array("d")
     for d in draws:
         head = {**d.head, "s": "".join(d.codes)}
         if d.other:
             head["x"] = d.other
         heads.append(head)
-    keys = array("H", [k for d in draws for k in d.keys])
-    nums = array("d", [v for d in draws for v in d.nums])
-    return json.dumps(heads, separators=(",", ":")), keys.tobytes() + nums.tobytes()
+        keys.fromlist(d.keys)
+        nums.fromlist(d.nums)
+    return _COMPACT_JSON.encode(heads), keys.tobytes() + nums.tobytes()
+
+
+_COMPACT_JSON = json.JSONEncoder(separators=(",", ":"))
 
 
 def encode_draws(draws: list[dict[str, Any]]) -> tuple[str, bytes]:
@@ -274,8 +277,6 @@ def draws_from_json(text: str | None, numbers: bytes | None = None) -> list[Draw
     """Decode the ``draws`` and ``numbers`` columns of the index."""
     if not text:
         return []
-    from array import array
-
     heads = json.loads(text)
     total = sum(len(h["s"]) for h in heads)
     keys, nums = array("H"), array("d")
@@ -446,8 +447,10 @@ _LOADING_WORDS = {
 }
 
 
+@functools.lru_cache(maxsize=512)
 def _loading_kind(text: str) -> str | None:
-    """The loading test a suggested test's id and text name, if any."""
+    """The loading test a suggested test's id and text name, if any (the texts are few and
+    fixed, so the answer is kept)."""
     t = text.lower()
     for kind, words in _LOADING_WORDS.items():
         if any(w in t for w in words):

@@ -241,10 +241,18 @@ class LibraryIndex:
             )
         fresh: dict[str, tuple[Any, ...]] = {}
         if todo:
+            pending: list[tuple[Any, ...]] = []
             for rows in summarize_many(self.folder, todo, self.overrides, workers):
-                self._write(lambda c, rows=rows: c.executemany(insert, rows))
+                pending += rows
                 for r in rows:
                     fresh[r[0]] = r[:-2]
+                # A few hundred rows per transaction: fewer commits, and an interrupted build
+                # still keeps nearly all it has read.
+                if len(pending) >= 400:
+                    self._write(lambda c, rows=pending: c.executemany(insert, rows))
+                    pending = []
+            if pending:
+                self._write(lambda c, rows=pending: c.executemany(insert, rows))
         # When this process read every file, the listing needs nothing back from the database.
         self._fresh = fresh if len(fresh) == len(on_disk) else None
         read = max(read_by_helper, len(todo))
