@@ -20,6 +20,7 @@ from __future__ import annotations
 import functools
 import json
 import math
+import operator
 import os
 import sys
 import threading
@@ -302,7 +303,7 @@ def draws_from_json(text: str | None, numbers: bytes | None = None) -> list[Draw
 # --- reading one file (runs in pool workers) ------------------------------------------------
 
 
-def _read_case(path: Path) -> Any:
+def _read_case(path: Path | str, size: int | None = None) -> Any:
     """Load the case at ``path`` by the cheapest reader that is provably equivalent.
 
     First :func:`workup.quickread.parse`, which reads the plain subset case files are written in
@@ -310,28 +311,30 @@ def _read_case(path: Path) -> Any:
     file with ``&``, ``*`` or ``!`` anywhere could hold an anchor, alias or tag, which the
     checking loader must judge; so could anything unusual. Those, and every failure or doubt of
     the lean paths, go through :func:`workup.caseio.load_case`, which raises the canonical error.
+    ``size`` is the size the folder scan saw, if known.
     """
-    from workup import caseio
-
-    try:
-        raw = path.read_bytes() if path.stat().st_size <= caseio.MAX_FILE_BYTES else None
-    except OSError:
-        raw = None
-    if raw is None or len(raw) > caseio.MAX_FILE_BYTES or any(c in raw for c in _SUSPECT):
-        return caseio.load_case(path)
+    caseio, quickread = _readers()
+    limit = caseio.MAX_FILE_BYTES
+    raw = None
+    if size is None or size <= limit:
+        try:
+            with open(path, "rb") as fh:
+                raw = fh.read(limit + 1)  # a file that grew since the scan is still capped
+        except OSError:
+            raw = None
+    if raw is None or len(raw) > limit or any(c in raw for c in _SUSPECT):
+        return caseio.load_case(Path(path))
     try:
         text = raw.decode("utf-8-sig")
     except UnicodeDecodeError:
-        return caseio.load_case(path)
-    from workup import quickread
-
+        return caseio.load_case(Path(path))
     data = quickread.parse(text)
     if isinstance(data, dict):
         try:
             return caseio.case_from_data(data, str(path))
         except caseio.CaseFileError:
             # The message must carry line numbers, which only the checking loader's nodes know.
-            return caseio.load_case(path)
+            return caseio.load_case(Path(path))
     try:
         loader = _lean_loader()(text)
         try:
@@ -340,10 +343,19 @@ def _read_case(path: Path) -> Any:
         finally:
             loader.dispose()
     except Exception:  # _Slow, or anything odd: the checking loader decides and words the error
-        return caseio.load_case(path)
+        return caseio.load_case(Path(path))
     if not isinstance(data, dict):
-        return caseio.load_case(path)
-    return caseio.case_from_data(data, str(path), node)
+        return caseio.load_case(Path(path))
+    return caseio.case_from_data(data, str(Path(path)), node)  # named as load_case names it
+
+
+@functools.lru_cache(maxsize=1)
+def _readers() -> tuple[Any, Any]:
+    """The checking loader's module and the quick reader, imported on first use (an unchanged
+    listing never needs them)."""
+    from workup import caseio, quickread
+
+    return caseio, quickread
 
 
 _SUSPECT = (b"&", b"*", b"!", b"\x00")
@@ -555,7 +567,7 @@ def _relative_error(exc: Exception, full: str, name: str) -> str:
 
 
 def summarize_file(
-    folder: Path,
+    folder: Path | str,
     name: str,
     size: int,
     mtime_ns: int,
@@ -563,36 +575,46 @@ def summarize_file(
     assess_fn: Callable[..., Any] | None = None,
 ) -> tuple[Any, ...]:
     """The index row (ROW_FIELDS order) of file ``name`` in ``folder``."""
-    from workup.caseio import CaseFileError
-
+    caseio, _ = _readers()
     if assess_fn is None:
-        from workup.assess import rank_case as assess_fn
-    path = folder / name
+        assess_fn = _rank_case()
     base: dict[str, Any] = {"name": name, "size": size, "mtime_ns": mtime_ns}
     try:
-        case = _read_case(path)
-    except CaseFileError as exc:
-        error = _relative_error(exc, str(path), name)
+        case = _read_case(os.path.join(folder, name), size)
+    except caseio.CaseFileError as exc:
+        error = _relative_error(exc, str(Path(folder) / name), name)
         row = {**base, "ok": 0, "error": error, "n_draws": 0, "text": error.lower()}
     except Exception as exc:  # a loader bug must not stop the listing either
         error = f"{name}: cannot read: {type(exc).__name__}: {exc}"
         row = {**base, "ok": 0, "error": error, "n_draws": 0, "text": error.lower()}
     else:
         try:
-            row = {**base, "ok": 1, **summarize_case(case, assess_fn, overrides or {})}
+            row = summarize_case(case, assess_fn, overrides or {})
         except Exception as exc:  # the file loaded; say what failed and keep listing
             error = f"{name}: cannot summarize the case: {type(exc).__name__}: {exc}"
             row = {**base, "ok": 1, "label": case.label, "error": error, "n_draws": len(case.draws),
                    "text": f"{case.label} {error}".lower()}  # fmt: skip
+        else:
+            row.update(base, ok=1)
+            return _ROW_OF(row)  # every field is there
     return tuple(row.get(f) for f in ROW_FIELDS)
+
+
+_ROW_OF = operator.itemgetter(*ROW_FIELDS)
+
+
+@functools.lru_cache(maxsize=1)
+def _rank_case() -> Callable[..., Any]:
+    from workup.assess import rank_case
+
+    return rank_case
 
 
 def _summarize_chunk(
     folder: str, items: list[tuple[str, int, int]], overrides: dict[str, float]
 ) -> list[tuple[Any, ...]]:
     """Pool worker: rows for a chunk of (name, size, mtime_ns)."""
-    base = Path(folder)
-    return [summarize_file(base, n, s, m, overrides) for n, s, m in items]
+    return [summarize_file(folder, n, s, m, overrides) for n, s, m in items]
 
 
 def pool_allowed() -> bool:
