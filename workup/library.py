@@ -319,7 +319,7 @@ def _read_case(path: Path | str, size: int | None = None) -> Any:
     if size is None or size <= limit:
         try:
             with open(path, "rb") as fh:
-                raw = fh.read(limit + 1)  # a file that grew since the scan is still capped
+                raw = fh.read()  # sized from the open file; a file that grew is refused below
         except OSError:
             raw = None
     if raw is None or len(raw) > limit or any(c in raw for c in _SUSPECT):
