@@ -14,7 +14,15 @@ from workup import indices as _indices
 from workup import patterns as _patterns
 from workup.analytes import Panel, analyte
 from workup.cautions import CAUTION_LINES
-from workup.findings import Disorder, DrawResult, Finding, NextTest, PatternCall, Ranking
+from workup.findings import (
+    Disorder,
+    DrawResult,
+    Finding,
+    NextTest,
+    PatternCall,
+    Ranking,
+    new_draw_result,
+)
 from workup.inputs import inputs_for
 from workup.model import Case, Draw, GasSample
 from workup.quantity import unusual
@@ -86,7 +94,7 @@ def draw_result(case: Case, draw: Draw, settings: Settings) -> DrawResult:
     """Compute the indices and disorders of one draw."""
     x = inputs_for(case, draw, settings)
     found = _indices.compute_all(x)
-    return DrawResult(draw.label, x, found, _disorders.analyse(x, found))
+    return new_draw_result(draw.label, x, found, _disorders.analyse(x, found))
 
 
 def value_cautions(draw: Draw) -> list[str]:

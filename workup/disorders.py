@@ -14,7 +14,8 @@ from __future__ import annotations
 import math
 from dataclasses import dataclass
 
-from workup.findings import Disorder, Evidence, Finding, Status
+from workup.findings import Disorder, Evidence, Finding, Status, new_disorder, new_evidence
+from workup.frozen import builder
 from workup.inputs import DrawInputs
 
 PCO2_LOW = 35.0
@@ -103,6 +104,9 @@ class Picture:
     """Why the gas is missing or was set aside, or a caution about it; None when clean."""
 
 
+_new_picture = builder(Picture)
+
+
 def _hh_ph(hco3: float, pco2: float) -> float | None:
     """pH from HCO3 and pCO2 (Henderson–Hasselbalch, CO2 solubility 0.03); None when undefined."""
     if hco3 <= 0 or pco2 <= 0:
@@ -136,7 +140,7 @@ def picture(x: DrawInputs, findings: dict[str, Finding]) -> Picture:
             break
 
     if ph is None or pco2 is None:
-        return Picture(
+        return _new_picture(
             ph, pco2, hco3, hco3_words, gap, gap_words, gap_index, False, "no complete blood gas"
         )
     usable, words = True, None
@@ -162,7 +166,7 @@ def picture(x: DrawInputs, findings: dict[str, Finding]) -> Picture:
                     f"{fmt_ph(computed)} (tolerance {fmt(s.hh_ph_tolerance)})"
                     + ("; the gas was set aside" if not usable else "; read with caution")
                 )
-    return Picture(ph, pco2, hco3, hco3_words, gap, gap_words, gap_index, usable, words)
+    return _new_picture(ph, pco2, hco3, hco3_words, gap, gap_words, gap_index, usable, words)
 
 
 def _band(findings: dict[str, Finding], fid: str, low: float, high: float) -> tuple[float, float]:
@@ -191,7 +195,7 @@ class _Builder:
         if any(d.id == did for d in self.out):
             return
         ev = [*evidence, *self.common] if primary else evidence
-        self.out.append(Disorder(did, NAMES[did], primary, tuple(ev), detail, compensation))
+        self.out.append(new_disorder(did, NAMES[did], primary, tuple(ev), detail, compensation))
 
     def has(self, ids: frozenset[str] | set[str]) -> bool:
         return any(d.id in ids for d in self.out)
@@ -235,19 +239,19 @@ def _metabolic_acidosis(
     """Add the metabolic acidosis typed by its gap, and what the delta ratio adds."""
     s = x.settings
     if pic.gap is None:
-        ev = Evidence("the anion gap cannot be computed: enter serum sodium and chloride")
+        ev = new_evidence("the anion gap cannot be computed: enter serum sodium and chloride")
         b.add("metabolic_acidosis", primary, [*lead, ev], detail, compensation)
         return
     gap_index = pic.gap_index
     if pic.gap <= s.anion_gap_upper:
-        ev = Evidence(
+        ev = new_evidence(
             f"{pic.gap_words} {fmt(pic.gap)} is within the upper limit of "
             f"{fmt(s.anion_gap_upper)}: a normal gap",
             gap_index,
         )
         b.add("normal_gap_metabolic_acidosis", primary, [*lead, ev], detail, compensation)
         return
-    ev = Evidence(
+    ev = new_evidence(
         f"{pic.gap_words} {fmt(pic.gap)} is above the upper limit of {fmt(s.anion_gap_upper)}",
         gap_index,
     )
@@ -261,7 +265,7 @@ def _metabolic_acidosis(
             "normal_gap_metabolic_acidosis",
             False,
             [
-                Evidence(
+                new_evidence(
                     f"{shown} is below {fmt(DELTA_MIXED_BELOW)}: bicarbonate "
                     "fell more than the gap rose, so a normal-gap acidosis is added (Brandis)",
                     "delta_ratio",
@@ -273,7 +277,7 @@ def _metabolic_acidosis(
             "metabolic_alkalosis",
             False,
             [
-                Evidence(
+                new_evidence(
                     f"{shown} is above {fmt(DELTA_ALKALOSIS_ABOVE)}: bicarbonate "
                     "fell less than the gap rose, so a metabolic alkalosis is added (or a "
                     "compensated respiratory acidosis was there before; Brandis)",
@@ -294,7 +298,7 @@ def _masked_high_gap(b: _Builder, pic: Picture, x: DrawInputs) -> None:
             "high_gap_metabolic_acidosis",
             False,
             [
-                Evidence(
+                new_evidence(
                     f"{pic.gap_words} {fmt(pic.gap)} is above {fmt(x.settings.anion_gap_upper)}: "
                     "unmeasured anions point to a high-gap acidosis even though the "
                     "bicarbonate does not show it",
@@ -339,14 +343,14 @@ def _respiratory(
     )
     acidosis = kind == "respiratory_acidosis"
     if in_a and in_c:
-        return "acute or chronic", "appropriate", None, Evidence(bands + ": fits either")
+        return "acute or chronic", "appropriate", None, new_evidence(bands + ": fits either")
     if in_a:
         other = "acidosis" if acidosis else "alkalosis"
         return (
             "acute",
             "appropriate",
             None,
-            Evidence(
+            new_evidence(
                 bands + f": fits acute; if the history says chronic, a metabolic {other} is added"
             ),
         )
@@ -356,7 +360,7 @@ def _respiratory(
             "chronic",
             "appropriate",
             None,
-            Evidence(
+            new_evidence(
                 bands + f": fits chronic; if the history says acute, a metabolic {other} is added"
             ),
         )
@@ -365,7 +369,7 @@ def _respiratory(
             "between acute and chronic",
             "appropriate",
             None,
-            Evidence(
+            new_evidence(
                 bands + ": between the two, as in an evolving or acute-on-chronic disorder (or an "
                 "acute disorder with a metabolic process added)"
             ),
@@ -376,14 +380,14 @@ def _respiratory(
             None,
             comp,
             "metabolic_acidosis",
-            Evidence(bands + ": lower than either, so a metabolic acidosis is added"),
+            new_evidence(bands + ": lower than either, so a metabolic acidosis is added"),
         )
     comp = "excessive" if acidosis else "insufficient"
     return (
         None,
         comp,
         "metabolic_alkalosis",
-        Evidence(bands + ": higher than either, so a metabolic alkalosis is added"),
+        new_evidence(bands + ": higher than either, so a metabolic alkalosis is added"),
     )
 
 
@@ -420,17 +424,17 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
     assert ph is not None and pco2 is not None and hco3 is not None
     common: list[Evidence] = []
     if pic.gas_words:
-        common.append(Evidence(pic.gas_words, "henderson_hasselbalch_ph"))
+        common.append(new_evidence(pic.gas_words, "henderson_hasselbalch_ph"))
     if x.venous:
         common.append(
-            Evidence(
+            new_evidence(
                 f"the gas is {x.sample.value}: the compensation rules were derived on arterial "
                 "blood (venous pCO2 runs about 4–6 mmHg higher)"
             )
         )
     b = _Builder(common)
     state = "acidemia" if ph < s.ph_low else "alkalemia" if ph > s.ph_high else "a normal pH"
-    ph_ev = Evidence(f"pH {fmt_ph(ph)}: {state}")
+    ph_ev = new_evidence(f"pH {fmt_ph(ph)}: {state}")
     primary = _primary_with_gas(pic, x)
     if primary is None:
         _masked_high_gap(b, pic, x)
@@ -439,7 +443,7 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
                 "metabolic_alkalosis",
                 False,
                 [
-                    Evidence(
+                    new_evidence(
                         f"bicarbonate {fmt(hco3)} and pH {fmt_ph(ph)} are normal despite the high "
                         "gap: a metabolic alkalosis offsets the acidosis"
                     )
@@ -447,7 +451,7 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
             )
             # The high-gap acidosis leads: rebuild it as the primary disorder.
             first = b.out[0]
-            b.out[0] = Disorder(first.id, first.name, True, (*first.evidence, ph_ev, *common))
+            b.out[0] = new_disorder(first.id, first.name, True, (*first.evidence, ph_ev, *common))
         return b.out
 
     if primary == "metabolic_acidosis":
@@ -460,8 +464,8 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
         comp = "appropriate" if lo <= pco2 <= hi else "insufficient" if pco2 > hi else "excessive"
         lead = [
             ph_ev,
-            Evidence(f"{pic.hco3_words} {fmt(hco3)} is low: a metabolic acidosis"),
-            Evidence(
+            new_evidence(f"{pic.hco3_words} {fmt(hco3)} is low: a metabolic acidosis"),
+            new_evidence(
                 f"pCO2 {fmt(pco2)} against Winters' expected {fmt(lo)}–{fmt(hi)}: "
                 + {
                     "appropriate": "appropriate respiratory compensation",
@@ -478,7 +482,7 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
                 added[comp],
                 False,
                 [
-                    Evidence(
+                    new_evidence(
                         f"pCO2 {fmt(pco2)} is outside Winters' band {fmt(lo)}–{fmt(hi)}",
                         "expected_pco2",
                     )
@@ -492,8 +496,8 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
         comp = "appropriate" if lo <= pco2 <= hi else "excessive" if pco2 > hi else "insufficient"
         ev = [
             ph_ev,
-            Evidence(f"{pic.hco3_words} {fmt(hco3)} is high: a metabolic alkalosis"),
-            Evidence(
+            new_evidence(f"{pic.hco3_words} {fmt(hco3)} is high: a metabolic alkalosis"),
+            new_evidence(
                 f"pCO2 {fmt(pco2)} against the expected {fmt(lo)}–{fmt(hi)} (ΔpCO2 = 0.7 × ΔHCO3, "
                 f"Berend et al. 2014): {comp}",
                 "expected_pco2_metabolic_alkalosis",
@@ -502,7 +506,7 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
         b.add("metabolic_alkalosis", True, ev, None, comp)
         added = {"excessive": "respiratory_acidosis", "insufficient": "respiratory_alkalosis"}
         if comp in added:
-            b.add(added[comp], False, [Evidence(
+            b.add(added[comp], False, [new_evidence(
                 f"pCO2 {fmt(pco2)} is outside the expected {fmt(lo)}–{fmt(hi)}",
                 "expected_pco2_metabolic_alkalosis")])  # fmt: skip
         _masked_high_gap(b, pic, x)
@@ -512,10 +516,10 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
     # bicarbonate that fits a respiratory alkalosis is not called a metabolic acidosis.
     detail, comp, added, fit = _respiratory(primary, pic, x, findings)
     word = "high" if primary == "respiratory_acidosis" else "low"
-    ev = [ph_ev, Evidence(f"pCO2 {fmt(pco2)} is {word}: a {NAMES[primary].lower()}"), fit]
+    ev = [ph_ev, new_evidence(f"pCO2 {fmt(pco2)} is {word}: a {NAMES[primary].lower()}"), fit]
     if primary == "respiratory_alkalosis" and hco3 < CHRONIC_RESP_ALK_HCO3_FLOOR:
         ev.append(
-            Evidence(
+            new_evidence(
                 f"bicarbonate {fmt(hco3)} is below about {fmt(CHRONIC_RESP_ALK_HCO3_FLOOR)}, "
                 "lower than renal compensation usually reaches"
             )
@@ -526,14 +530,18 @@ def _with_gas(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -> list
     if added == "metabolic_acidosis":
         _metabolic_acidosis(
             b, pic, x, findings, False,
-            [Evidence(f"bicarbonate {fmt(hco3)} is lower than the respiratory disorder explains")],
+            [new_evidence(f"bicarbonate {fmt(hco3)} is lower than the respiratory disorder explains")],
             None, None,
         )  # fmt: skip
     elif added == "metabolic_alkalosis":
         b.add(
             "metabolic_alkalosis",
             False,
-            [Evidence(f"bicarbonate {fmt(hco3)} is higher than the respiratory disorder explains")],
+            [
+                new_evidence(
+                    f"bicarbonate {fmt(hco3)} is higher than the respiratory disorder explains"
+                )
+            ],
         )
     _masked_high_gap(b, pic, x)
     return b.out
@@ -547,22 +555,22 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
         return []
     why = pic.gas_words or "no complete blood gas"
     common = [
-        Evidence(
+        new_evidence(
             f"{why}: compensation and respiratory disorders cannot be judged",
             "henderson_hasselbalch_ph" if pic.gas_words else None,
         )
     ]
     if pic.gas_words and "set aside" in pic.gas_words:
-        common.append(Evidence("recheck the gas (sample, timing, transcription) before relying "
+        common.append(new_evidence("recheck the gas (sample, timing, transcription) before relying "
                                "on an acid-base reading", "henderson_hasselbalch_ph"))  # fmt: skip
     b = _Builder(common)
     ph = pic.ph
     acidemic = ph is not None and ph < s.ph_low
     if hco3 < s.bicarbonate_low:
-        lead = [Evidence(f"{pic.hco3_words} {fmt(hco3)} is below {fmt(s.bicarbonate_low)}")]
+        lead = [new_evidence(f"{pic.hco3_words} {fmt(hco3)} is below {fmt(s.bicarbonate_low)}")]
         high_gap = pic.gap is not None and pic.gap > s.anion_gap_upper
         if acidemic:
-            lead.append(Evidence(f"pH {fmt_ph(ph)}: acidemia confirms a metabolic acidosis"))  # type: ignore[arg-type]
+            lead.append(new_evidence(f"pH {fmt_ph(ph)}: acidemia confirms a metabolic acidosis"))  # type: ignore[arg-type]
             # pCO2 may be present but set aside with an inconsistent gas: say which.
             missing_part = "gas set aside" if "pco2" in x.gas else "no pCO2"
             detail = f"compensation not assessed ({missing_part})"
@@ -577,7 +585,7 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
                 else ""
             )
             lead.append(
-                Evidence(
+                new_evidence(
                     "without a usable pH and pCO2 a low bicarbonate may also be renal compensation for a "
                     "chronic respiratory alkalosis" + floor + "; enter the gas to confirm"
                 )
@@ -586,8 +594,8 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
         return b.out
     if hco3 > s.bicarbonate_high:
         lead = [
-            Evidence(f"{pic.hco3_words} {fmt(hco3)} is above {fmt(s.bicarbonate_high)}"),
-            Evidence(
+            new_evidence(f"{pic.hco3_words} {fmt(hco3)} is above {fmt(s.bicarbonate_high)}"),
+            new_evidence(
                 "without a usable pH and pCO2 a high bicarbonate may also be renal compensation for a "
                 "chronic respiratory acidosis; enter the gas to confirm"
             ),
@@ -598,7 +606,7 @@ def _chemistry_only(pic: Picture, x: DrawInputs, findings: dict[str, Finding]) -
     _masked_high_gap(b, pic, x)
     if b.out:
         first = b.out[0]
-        b.out[0] = Disorder(first.id, first.name, True, (*first.evidence, *common),
+        b.out[0] = new_disorder(first.id, first.name, True, (*first.evidence, *common),
                             "no usable gas", None)  # fmt: skip
     return b.out
 

@@ -11,6 +11,8 @@ from dataclasses import dataclass, field
 from enum import StrEnum
 from typing import Any
 
+from workup.frozen import builder
+
 
 class Status(StrEnum):
     """How far a computed value can be relied on."""
@@ -97,7 +99,7 @@ def missing(id: str, name: str, unit: str, needs: list[str], formula: str, sourc
     key = (id, name, unit, tuple(needs), formula, source)
     found = _MISSING.get(key)
     if found is None:
-        found = Finding(
+        found = new_finding(
             id=id,
             name=name,
             value=None,
@@ -251,3 +253,19 @@ class Ranking:
     """Suggested tests, most useful first."""
     notes: list[str] = field(default_factory=list)
     """Statements about the ranking as a whole (e.g. why no pattern is called likely)."""
+
+
+# Constructors for the results made by the thousand in a library build: as calling the class,
+# about three times faster, and the objects are as frozen (see workup.frozen).
+new_finding = builder(Finding)
+"""Make a Finding."""
+new_evidence = builder(Evidence)
+"""Make an Evidence."""
+new_disorder = builder(Disorder)
+"""Make a Disorder."""
+new_pattern_call = builder(PatternCall)
+"""Make a PatternCall."""
+new_next_test = builder(NextTest)
+"""Make a NextTest."""
+new_draw_result = builder(DrawResult)
+"""Make a DrawResult."""

@@ -10,7 +10,9 @@ from dataclasses import dataclass, field
 
 from workup.analytes import Panel
 from workup.context import Flag
+from workup.frozen import builder
 from workup.model import Case, Draw, GasSample, LoadingTest, Sex
+from workup.quantity import Measurement
 from workup.settings import DEFAULTS, Settings
 
 UREA_MMOL_PER_BUN_MG_DL = 10.0 / 28.01
@@ -67,13 +69,18 @@ class DrawInputs:
         return self.sample is not GasSample.arterial
 
 
+_new_inputs = builder(DrawInputs)
+
+
 def inputs_for(case: Case, draw: Draw, settings: Settings = DEFAULTS) -> DrawInputs:
     """Build the calculators' view of ``draw`` in ``case``."""
 
     def canon(panel) -> dict[str, float]:
-        return {k: m.canonical for k, m in panel.measurements().items()}
+        # The panel's fields in catalogue order (as measurements() gives them), read straight
+        # from the model: this runs for every draw of every case a library lists.
+        return {k: m.canonical for k, m in panel.__dict__.items() if isinstance(m, Measurement)}
 
-    return DrawInputs(
+    return _new_inputs(
         serum=canon(draw.serum),
         gas=canon(draw.blood_gas),
         urine=canon(draw.urine),

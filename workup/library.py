@@ -162,11 +162,18 @@ ROW_FIELDS = (
 )
 
 
+@functools.lru_cache(maxsize=1)
+def _entry_builder() -> Callable[..., LibraryEntry]:
+    from workup.frozen import builder
+
+    return builder(LibraryEntry)
+
+
 def entry_from_row(folder: Path, row: tuple[Any, ...]) -> LibraryEntry:
     """A LibraryEntry from an index row (ROW_FIELDS order, ``draws`` and ``numbers`` left out)."""
     (name, size, mtime, ok, error, label, notes, first, latest, latest_draw, n, lid, lname,
      verdict, pending, next_test, loading_exp, has_loading, note, text, dates) = row[:21]  # fmt: skip
-    return LibraryEntry(
+    return _entry_builder()(
         name=name,
         folder=folder,
         size=size,

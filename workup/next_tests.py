@@ -14,7 +14,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from itertools import combinations
 
-from workup.findings import NextTest, PatternCall, Verdict
+from workup.findings import NextTest, PatternCall, Verdict, new_next_test
 from workup.pattern_rules import Readings
 
 LEADING_MAX = 3
@@ -209,6 +209,6 @@ def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
         if use <= 0:
             continue
         seps = tuple(c.id for c in lead if c.id in split)
-        scored.append((use, order, NextTest(spec.id, spec.text, spec.why, seps)))
+        scored.append((use, order, new_next_test(spec.id, spec.text, spec.why, seps)))
     scored.sort(key=lambda t: (-t[0], t[1]))
     return [t for _, _, t in scored]

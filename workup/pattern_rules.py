@@ -20,8 +20,9 @@ from dataclasses import dataclass, field
 
 from workup.context import MEANING, Flag
 from workup.disorders import fmt
-from workup.findings import DrawResult, Evidence, Finding, Status
+from workup.findings import DrawResult, Evidence, Finding, Status, new_evidence
 from workup.formatting import fmt_number
+from workup.frozen import builder
 from workup.model import LoadingTest
 from workup.settings import Settings
 
@@ -162,7 +163,7 @@ def _offer(out: Readings, key: str, f: Finding | None, draw: str) -> None:
             why = f.reasons[0] if f.reasons else "a validity condition fails"
             out.set_aside[key] = f"{NAME.get(key, f.name)} ({draw}) not valid: {why}"
         return
-    r = Reading(
+    r = _new_reading(
         key, f.interpretation, f.value, draw, f.id, STATUS_FACTOR[f.status],
         f"{NAME.get(key, f.name)} {_num(f)}{_unit(f)} "
         f"({draw}{', caution' if f.status is Status.caution else ''})",
@@ -204,7 +205,7 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
         k = x.serum.get("potassium")
         if k is not None:
             word = "hypo" if k < s.potassium_low else "hyper" if k > s.potassium_high else "normal"
-            out.by_key["potassium"] = Reading(
+            out.by_key["potassium"] = _new_reading(
                 "potassium",
                 word,
                 k,
@@ -217,14 +218,14 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
         if hco3 is not None and (
             "bicarbonate" not in out.by_key or hco3 < (out.by_key["bicarbonate"].value or 0)
         ):
-            out.by_key["bicarbonate"] = Reading(
+            out.by_key["bicarbonate"] = _new_reading(
                 "bicarbonate", "low", hco3, r.label, None, 1.0,
                 f"plasma bicarbonate {fmt_number(hco3, 'mmol/L')} ({r.label})",
             )  # fmt: skip
         ug, sg = x.urine.get("glucose"), x.serum.get("glucose")
         if ug is not None and sg is not None and sg <= RENAL_GLUCOSE_THRESHOLD:
             word = "present" if ug > GLUCOSURIA_ABOVE else "absent"
-            out.by_key["glucosuria"] = Reading(
+            out.by_key["glucosuria"] = _new_reading(
                 "glucosuria", word, ug, r.label, None, 1.0,
                 f"urine glucose {fmt_number(ug, 'mmol/L')} mmol/L with plasma glucose "
                 f"{fmt_number(sg, 'mmol/L')} "
@@ -233,7 +234,7 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
     if acid_test_ph:
         low, label = min(acid_test_ph)
         word = "acidified" if low < FURO_ACIDIFIED_BELOW else "not_acidified"
-        out.by_key["acidification_test"] = Reading(
+        out.by_key["acidification_test"] = _new_reading(
             "acidification_test", word, low, label, None, 1.0,
             f"lowest urine pH {low:.2f} during an acidification test ({label})",
         )  # fmt: skip
@@ -260,6 +261,10 @@ _AMMONIUM_WORD = {
     "low": "low",
     "positive": "low",
 }
+
+
+_new_reading = builder(Reading)
+_new_ammonium_call = builder(AmmoniumCall)
 
 
 def ammonium(rd: Readings) -> AmmoniumCall | None:
@@ -290,7 +295,7 @@ def ammonium(rd: Readings) -> AmmoniumCall | None:
     aside = [v for k, v in rd.set_aside.items() if k in dict(AMMONIUM_SOURCES)]
     if aside:
         text += "; set aside: " + "; ".join(aside)
-    return AmmoniumCall(word, w + sum(CORROBORATION * c[2].factor for c in agree), lead, text)
+    return _new_ammonium_call(word, w + sum(CORROBORATION * c[2].factor for c in agree), lead, text)
 
 
 Rule = tuple[str, float, str]
@@ -323,7 +328,7 @@ class Tally:
                 (self.support_w if w > 0 else self.against_w)[pid].append(abs(w) * factor)
             return
         for pid, w, why in rules:
-            ev = Evidence(f"{text}: {why}" if why else text, index, draw, abs(w) * factor)
+            ev = new_evidence(f"{text}: {why}" if why else text, index, draw, abs(w) * factor)
             (self.support if w > 0 else self.against)[pid].append(ev)
 
     def weights(self, pid: str) -> tuple[list[float], list[float]]:

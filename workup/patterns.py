@@ -10,7 +10,13 @@ from __future__ import annotations
 
 from typing import Any
 
-from workup.findings import DrawResult, Evidence, PatternCall, Ranking, Verdict
+from workup.findings import (
+    DrawResult,
+    Ranking,
+    Verdict,
+    new_evidence,
+    new_pattern_call,
+)
 from workup.next_tests import suggest
 from workup.pattern_rules import PATTERNS, gather, judge, missing_for
 from workup.settings import Settings
@@ -78,8 +84,8 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool 
     if not rd.acidosis_draws:
         why = _no_acidosis_note(draws) if draws else "The case has no draws to rank."
         calls = [
-            PatternCall(pid, name, Verdict.unlikely, 0.0,
-                        against=(Evidence("no normal-gap metabolic acidosis in any draw"),))
+            new_pattern_call(pid, name, Verdict.unlikely, 0.0,
+                        against=(new_evidence("no normal-gap metabolic acidosis in any draw"),))
             for pid, name in PATTERNS.items()
         ]  # fmt: skip
         return Ranking(calls, [], [why])
@@ -92,10 +98,10 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool 
         if evidence:
             sup = sorted(tally.support[pid], key=lambda e: -e.weight)
             ag = sorted(tally.against[pid], key=lambda e: -e.weight)
-            call = PatternCall(pid, name, _verdict(score, ag_w), score, tuple(sup), tuple(ag),
+            call = new_pattern_call(pid, name, _verdict(score, ag_w), score, tuple(sup), tuple(ag),
                                missing_for(pid, rd))  # fmt: skip
         else:
-            call = PatternCall(pid, name, _verdict(score, ag_w), score)
+            call = new_pattern_call(pid, name, _verdict(score, ag_w), score)
         calls.append((order, call))
     calls.sort(key=lambda t: (-t[1].score, t[0]))
     ranked = [c for _, c in calls]

@@ -10,7 +10,8 @@ import math
 from dataclasses import dataclass, field
 from typing import Any
 
-from workup.findings import Finding, Status
+from workup.findings import Finding, Status, new_finding
+from workup.frozen import builder
 from workup.inputs import DrawInputs
 
 _RANK = {Status.ok: 0, Status.caution: 1, Status.not_valid: 2}
@@ -70,7 +71,7 @@ def finding(
 ) -> Finding:
     """Build a computed Finding from ``meta`` = (id, name, unit, formula, source)."""
     fid, name, unit, formula, source = meta
-    return Finding(
+    return new_finding(
         fid, name, float(value), unit, judge.status,
         (*judge.invalid, *judge.cautions, *judge.notes), (), formula, source, interpretation,
         low, high, dict(extra) if extra else {},
@@ -138,7 +139,7 @@ def corrected_gap(x: DrawInputs) -> tuple[float | None, bool]:
     return gap, False
 
 
-@dataclass(frozen=True)
+@dataclass(frozen=True, slots=True)
 class SerumPicture:
     """Whether the draw shows a metabolic acidosis and of which kind, with the reason in words."""
 
@@ -148,6 +149,9 @@ class SerumPicture:
     """True when the gap (corrected if possible) is not high; None when it cannot be computed."""
     words: str
     """The picture in words, for reasons."""
+
+
+_new_picture = builder(SerumPicture)
 
 
 def serum_picture(x: DrawInputs) -> SerumPicture:
@@ -169,31 +173,31 @@ def _serum_picture(x: DrawInputs) -> SerumPicture:
     s = x.settings
     hco3, _, _ = bicarbonate(x)
     if hco3 is None:
-        return SerumPicture(None, None, "no plasma bicarbonate was given to confirm an acidosis")
+        return _new_picture(None, None, "no plasma bicarbonate was given to confirm an acidosis")
     gap, corrected = corrected_gap(x)
     kind = "an albumin-corrected anion gap" if corrected else "an anion gap"
     if hco3 >= s.bicarbonate_low:
-        return SerumPicture(False, None, f"plasma bicarbonate {fmt(hco3)} is not low")
+        return _new_picture(False, None, f"plasma bicarbonate {fmt(hco3)} is not low")
     ph = x.gas.get("ph")
     if ph is not None and ph > s.ph_high:
-        return SerumPicture(
+        return _new_picture(
             False,
             None,
             f"bicarbonate {fmt(hco3)} is low but pH {fmt(ph, 2)} is alkalemic: more likely renal "
             "compensation of a respiratory alkalosis than a metabolic acidosis",
         )
     if gap is None:
-        return SerumPicture(
+        return _new_picture(
             True, None, f"plasma bicarbonate {fmt(hco3)} is low but the anion gap is unknown"
         )
     if gap > s.anion_gap_upper:
-        return SerumPicture(
+        return _new_picture(
             True,
             False,
             f"bicarbonate {fmt(hco3)} with a high {kind.split(' ', 1)[1]} of {fmt(gap)}: unmeasured anions are "
             "present",
         )
-    return SerumPicture(
+    return _new_picture(
         True, True, f"bicarbonate {fmt(hco3)} with {kind} of {fmt(gap)}: a normal-gap acidosis"
     )
 
