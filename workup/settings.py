@@ -205,9 +205,9 @@ def describe(name: str) -> str:
 
 def user_settings_path() -> Path:
     """Where the user's settings file lives."""
-    from platformdirs import user_config_path
+    from workup.userconfig import settings_file
 
-    return user_config_path("workup", appauthor=False) / "settings.yaml"
+    return settings_file()
 
 
 def load_user_overrides(path: Path | None = None) -> dict[str, float]:

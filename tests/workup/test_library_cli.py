@@ -107,3 +107,29 @@ def test_a_case_with_no_likely_cause_names_none_as_leading(capsys) -> None:
     out = capsys.readouterr().out
     row = next(line for line in out.splitlines() if line.startswith("respiratory-alk"))
     assert "none likely" in row and "Bicarbonate loss" not in row
+
+
+def test_an_unchanged_repeat_listing_needs_neither_the_model_nor_yaml(
+    folder: Path, tmp_path: Path
+) -> None:
+    """The warm listing reads the index only: no pydantic, no YAML, no calculators."""
+    import os
+    import subprocess
+    import sys
+
+    env = dict(os.environ, XDG_CACHE_HOME=str(tmp_path / "cache"))
+    env["XDG_CONFIG_HOME"] = str(tmp_path / "config")  # no user settings file
+    listing = [sys.executable, "-m", "workup.cli", "list", str(folder), "--json"]
+    subprocess.run(listing, env=env, capture_output=True, check=True)  # builds the index
+    probe = (
+        "import sys, io\n"
+        "from workup.cli import main\n"
+        "out, sys.stdout = sys.stdout, io.StringIO()\n"
+        f"code = main(['list', {str(folder)!r}, '--json'])\n"
+        "sys.stdout = out\n"
+        "heavy = [m for m in ('pydantic', 'yaml', 'workup.assess', 'workup.model') "
+        "if m in sys.modules]\n"
+        "print(code, heavy)\n"
+    )
+    done = subprocess.run([sys.executable, "-c", probe], env=env, capture_output=True, text=True)
+    assert done.stdout.strip() == "0 []", done.stdout + done.stderr

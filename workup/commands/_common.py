@@ -4,13 +4,16 @@ from __future__ import annotations
 
 import sys
 from pathlib import Path
+from typing import TYPE_CHECKING
 
-from workup.caseio import CaseFileError, load_case
-from workup.model import Case
+if TYPE_CHECKING:
+    from workup.model import Case
 
 
 def load_or_report(path: Path) -> Case | None:
     """Load ``path`` or print its problems on stderr and return None."""
+    from workup.caseio import CaseFileError, load_case
+
     try:
         return load_case(path)
     except CaseFileError as exc:
@@ -20,10 +23,15 @@ def load_or_report(path: Path) -> Case | None:
 
 def user_overrides() -> dict[str, float] | None:
     """The user's settings overrides, or None (after a message on stderr) when the file is bad."""
+    from workup.userconfig import settings_file
+
+    path = settings_file()
+    if not path.exists():
+        return {}  # without a file there is nothing to validate: no need for the settings model
     from workup.settings import load_user_overrides
 
     try:
-        return load_user_overrides()
+        return load_user_overrides(path)
     except (ValueError, OSError) as exc:
         print(f"workup: settings: {exc}", file=sys.stderr)
         return None
