@@ -113,8 +113,19 @@ def parse(text: str) -> Any | None:
         return None
 
 
+def _unsupported(text: str) -> bool:
+    """True when ``text`` holds a character this reader never accepts (``_UNSUPPORTED_CHAR``).
+
+    Case files are nearly always ASCII, where that means a control character other than the line
+    break; str methods tell that without a regular expression visiting every character.
+    """
+    if text.isascii():
+        return not text.replace("\n", "").isprintable()
+    return _UNSUPPORTED_CHAR.search(text) is not None
+
+
 def _parse(text: str) -> Any | None:
-    if _UNSUPPORTED_CHAR.search(text) or text.startswith(("---", "...", "%")):
+    if _unsupported(text) or text.startswith(("---", "...", "%")):
         return None
     if "\n---" in text or "\n..." in text:
         return None

@@ -590,3 +590,11 @@ def test_mutated_case_files_hold_the_contract(data):
 @given(st.text(st.sampled_from(ALPHABET + "\n\r\x00\x85\u2028"), max_size=60))
 def test_any_text_holds_the_contract(text):
     check(text)
+
+
+@settings(max_examples=300, deadline=None)
+@given(st.text(alphabet=st.characters(max_codepoint=0x7F), max_size=60))
+def test_the_ascii_character_check_agrees_with_the_full_pattern(text: str) -> None:
+    """The fast test for ASCII text refuses exactly what the full character class refuses."""
+    assert quickread._unsupported(text) == bool(quickread._UNSUPPORTED_CHAR.search(text))
+    assert quickread._unsupported(text + "é") == bool(quickread._UNSUPPORTED_CHAR.search(text))

@@ -102,7 +102,8 @@ def run(args: argparse.Namespace) -> int:
             out.append(obj)
         # One case per line: the C encoder writes each (an indented dump is pure Python, and
         # for a library of 10,000 cases it took longer than the listing itself).
-        lines = ",\n".join(json.dumps(o, ensure_ascii=False) for o in out)
+        encode = json.JSONEncoder(ensure_ascii=False).encode  # one encoder for every row
+        lines = ",\n".join(encode(o) for o in out)
         sys.stdout.write("[\n" + lines + "\n]\n" if out else "[]\n")
     else:
         sys.stdout.write(render_rows(matches))
