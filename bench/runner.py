@@ -36,6 +36,8 @@ focused (bench.probe checks that the digit then lands in an input).
 APP_QUIT_KEYS: list[str] = ["tab", "enter"]
 """Answer to the unsaved-changes question Ctrl+Q asks after the digit: move to Discard, press it."""
 LIBRARY_SIZES = (1000, 10000)
+COLD_TARGET_FILES = 10_000
+"""The library size the cold-listing target is set for."""
 MEMORY_LIBRARY = 10000
 
 
@@ -283,6 +285,14 @@ def library_rows_from(samples: list[dict[str, Any]], sizes: tuple[int, ...]) -> 
         note = "" if ok == n else f"only {ok} of {n:,} generated cases were read as valid."
         base = "CSafeLoader parse of the same files"
         figs = library_figures((n,))
+        # The 1.5x target is set for 10,000 files. A smaller library is shown for scale: there
+        # the fixed start of a listing (interpreter, imports, the pool) weighs like the parse.
+        cold_target = Target("ratio", "<=", 1.5) if n >= COLD_TARGET_FILES else None
+        if cold_target is None:
+            note = (note + " " if note else "") + (
+                f"No target: it is set for {COLD_TARGET_FILES:,} files; here the fixed start of "
+                "a listing process (interpreter, imports, the worker) is as long as the parse."
+            )
         rows.append(
             _paired_row(
                 figs[0][0],
@@ -290,7 +300,7 @@ def library_rows_from(samples: list[dict[str, Any]], sizes: tuple[int, ...]) -> 
                 [float(s["cold_s"]) for s in mine],
                 parse,
                 base,
-                Target("ratio", "<=", 1.5),
+                cold_target,
                 note=note,
             )
         )

@@ -40,18 +40,24 @@ def _sample(files, parse, cold, warm, one, ok=None):
 
 
 def test_library_rows_pair_each_repetition_with_its_own_parse():
-    samples = [_sample(1000, 1.0, 1.2, 0.1, 0.2), _sample(1000, 2.0, 2.2, 0.1, 0.3)]
-    cold, warm, one = library_rows_from(samples, (1000,))
+    samples = [_sample(10000, 1.0, 1.2, 0.1, 0.2), _sample(10000, 2.0, 2.2, 0.1, 0.3)]
+    cold, warm, one = library_rows_from(samples, (10000,))
     assert cold.ratio.median == pytest.approx((1.2 + 1.1) / 2)
     assert cold.verdict == "pass"
     assert warm.value.median == pytest.approx(0.1) and warm.verdict == "pass"
     assert one.value.median == pytest.approx(0.25) and one.verdict == "pass"
 
 
+def test_the_cold_target_is_judged_at_ten_thousand_files_only():
+    cold, warm, _ = library_rows_from([_sample(1000, 1.0, 2.5, 0.1, 0.2)], (1000,))
+    assert cold.target is None and "set for 10,000 files" in cold.note
+    assert warm.verdict == "pass"
+
+
 def test_library_rows_flag_failures_and_missing_sizes():
-    rows = library_rows_from([_sample(1000, 1.0, 2.0, 0.6, 1.5, ok=990)], (1000, 10000))
+    rows = library_rows_from([_sample(10000, 1.0, 2.0, 0.6, 1.5, ok=9900)], (10000, 1000))
     assert [r.verdict for r in rows[:3]] == ["FAIL", "FAIL", "FAIL"]
-    assert "990 of 1,000" in rows[0].note
+    assert "9900 of 10,000" in rows[0].note
     assert [r.verdict for r in rows[3:]] == ["n/a"] * 3
 
 
