@@ -45,6 +45,9 @@ class WorkupApp(App[None]):
         Binding("f1", "help", "Help", id="help"),
         Binding("question_mark", "help", "Help", show=False),
         Binding("ctrl+q", "quit", "Quit", priority=True, id="quit"),
+        # Without a mouse a message box cannot be clicked away; at 80x24 a long one hides half
+        # the screen until it times out.
+        Binding("ctrl+d", "dismiss_messages", "Dismiss messages", show=False),
     ]
 
     def __init__(
@@ -242,6 +245,7 @@ class WorkupApp(App[None]):
             first = session.privacy[0]
             more = len(session.privacy) - 1
             tail = f"\n(+{more} more warning{'s' if more != 1 else ''}: F1)" if more else ""
+            tail += "\nctrl+d closes this message"
             self.notify(first.format() + tail, title="Case folder not private",
                         severity="warning", timeout=30)  # fmt: skip
 
@@ -395,6 +399,10 @@ class WorkupApp(App[None]):
                 if isinstance(b, Binding) and b.description
             ]
         self.push_screen(HelpScreen(title, keys, cautions, extra))
+
+    def action_dismiss_messages(self) -> None:
+        """Close every message box now (each also closes by itself after a while)."""
+        self.clear_notifications()
 
     def action_high_contrast(self) -> None:
         """Switch between the default theme and the terminal's own palette."""
