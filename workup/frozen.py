@@ -33,14 +33,19 @@ def builder(cls: type[T]) -> Callable[..., T]:
         else:
             spec = dataclasses.field()
         specs.append((f.name, f.type, spec))
+
+    def become_frozen(self: Any) -> None:
+        # Runs at the end of the twin's __init__: same slots in the same order, so CPython
+        # allows the change of class.
+        self.__class__ = cls
+
     twin: Any = dataclasses.make_dataclass(
-        f"_{cls.__name__}Builder", specs, slots=True, eq=False, repr=False
+        f"_{cls.__name__}Builder",
+        specs,
+        namespace={"__post_init__": become_frozen},
+        slots=True,
+        eq=False,
+        repr=False,
     )
-
-    def build(*args: Any, **kwargs: Any) -> T:
-        obj = twin(*args, **kwargs)
-        obj.__class__ = cls  # same slots in the same order, so CPython allows the change
-        return obj
-
-    build.__doc__ = f"Make a {cls.__name__} (fast; see workup.frozen)."
-    return build
+    twin.__doc__ = f"Make a {cls.__name__} (fast; see workup.frozen)."
+    return twin

@@ -458,6 +458,17 @@ def _stored_analytes() -> tuple[tuple[str, tuple[tuple[str, str, float, float], 
     )
 
 
+@functools.lru_cache(maxsize=1)
+def _panel_specs() -> tuple[tuple[str, dict[str, tuple[int, float, float]]], ...]:
+    """For each panel attribute of a draw: analyte key → (number of its stored name, usual low,
+    usual high)."""
+    number_of = _value_names()[1]
+    return tuple(
+        (attr, {k: (number_of[name], low, high) for k, name, low, high in analytes})
+        for attr, analytes in _stored_analytes()
+    )
+
+
 # Words that name each loading test in a suggested test's id or text.
 _LOADING_WORDS = {
     "bicarbonate_loading": ("bicarbonate_loading", "bicarbonate loading"),
@@ -485,7 +496,7 @@ def summarize_case(
     ``assess_fn(case, overrides)`` returns the draw results and the ranking, as
     :func:`workup.assess.rank_case` does.
     """
-    stored = _stored_analytes()
+    panels = _panel_specs()
     draws = case.draws
     timed = sorted((d.taken for d in draws if d.taken is not None), key=comparable_time)
     try:
@@ -503,13 +514,15 @@ def summarize_case(
             d.during.value if d.during else None,
         )
         keys, nums, codes = pd.keys, pd.nums, pd.codes
-        for attr, analytes in stored:
-            panel = getattr(d, attr)
-            for key, name, low, high in analytes:
-                m = getattr(panel, key)
-                if m is not None:
+        for attr, specs in panels:
+            # The panel's own fields in catalogue order; most are empty, and the gas sample
+            # type is not a value.
+            for key, m in getattr(d, attr).__dict__.items():
+                spec = specs.get(key) if m is not None else None
+                if spec is not None:
+                    i, low, high = spec
                     c = m.canonical
-                    keys.append(number_of[name])
+                    keys.append(i)
                     nums.append(c)
                     codes.append("m" if low <= c <= high else "u")
         packed.append(pd)
