@@ -46,8 +46,10 @@ class WorkupApp(App[None]):
         Binding("question_mark", "help", "Help", show=False),
         Binding("ctrl+q", "quit", "Quit", priority=True, id="quit"),
         # Without a mouse a message box cannot be clicked away; at 80x24 a long one hides half
-        # the screen until it times out.
-        Binding("ctrl+d", "dismiss_messages", "Dismiss messages", show=False),
+        # the screen until it times out. Priority, so that a focused text field or the note
+        # does not take the key while a message is shown; with none shown the key steps aside
+        # (check_action) and deletes to the right as usual.
+        Binding("ctrl+d", "dismiss_messages", "Dismiss messages", show=False, priority=True),
     ]
 
     def __init__(
@@ -399,6 +401,12 @@ class WorkupApp(App[None]):
                 if isinstance(b, Binding) and b.description
             ]
         self.push_screen(HelpScreen(title, keys, cautions, extra))
+
+    def check_action(self, action: str, parameters: tuple[object, ...]) -> bool | None:
+        """Let ctrl+d reach the focused widget when no message box is shown."""
+        if action == "dismiss_messages":
+            return bool(self._notifications)
+        return super().check_action(action, parameters)
 
     def action_dismiss_messages(self) -> None:
         """Close every message box now (each also closes by itself after a while)."""

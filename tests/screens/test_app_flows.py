@@ -481,3 +481,16 @@ async def test_random_key_storms_do_not_crash(demo: Path, seed: int) -> None:
         assert app.is_running
         case_screens = [s for s in app.screen_stack if isinstance(s, CaseScreen)]
         assert case_screens and case_screens[0].case.draws
+
+
+async def test_ctrl_d_deletes_to_the_right_when_no_message_is_shown(tmp_path: Path) -> None:
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        sodium = _field(app.screen, "serum-sodium").input
+        sodium.focus()
+        for k in [*"140", "home", "ctrl+d"]:
+            await pilot.press(k)
+        await pilot.pause()
+        assert not app._notifications and sodium.value == "40"
