@@ -1,7 +1,7 @@
 """What a paste proposes: the source lines, placed values, questions and refusals, and the proposal.
 
 The reading pass (:mod:`workup.paste.reading`) fills these records; the review answers the
-questions with :meth:`Proposal.resolve`, and :mod:`workup.paste.review` merges the result into a draw.
+questions with :meth:`Proposal.resolve`, and :mod:`workup.paste.review` merges them into a draw.
 """
 
 from __future__ import annotations

@@ -53,7 +53,7 @@ class Pending:
     options: list[Entry]
     """The values it may be answered with."""
     problems: list[str]
-    """Why some readings of the line could not be taken (carried along; the review does not show them)."""
+    """Why some readings of the line could not be taken (carried along, not shown)."""
 
 
 def finish(

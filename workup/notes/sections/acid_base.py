@@ -1,7 +1,7 @@
 """The ``acid_base`` section: the gas check, the primary disorder, its compensation, any other.
 
 The compensation clauses restate the expected-value indices (``COMPENSATION_INDEX`` says which
-belongs to which disorder); the disorders' evidence is quoted by :mod:`workup.notes.sections.evidence`.
+belongs to which disorder); :mod:`workup.notes.sections.evidence` quotes each disorder's evidence.
 """
 
 from __future__ import annotations

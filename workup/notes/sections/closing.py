@@ -1,4 +1,7 @@
-"""The closing sections: ``next_tests`` (suggested tests), ``caveats`` and the standing ``caution``."""
+"""The closing sections: ``next_tests`` (tests to suggest), ``caveats`` and ``caution``.
+
+They end the note in this order; only the standing caution is written in every note.
+"""
 
 from __future__ import annotations
 
