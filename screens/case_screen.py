@@ -21,7 +21,6 @@ from pydantic import ValidationError
 from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
-from textual.binding import Binding
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
 from textual.timer import Timer
@@ -35,7 +34,9 @@ from textual.widgets import (
 )
 
 from screens import persistence
-from screens.davenport import DavenportView, band_rules_text
+from screens.case import keys
+from screens.case.keys import TABS
+from screens.davenport import DavenportView
 from screens.dialogs import AskScreen, ChoiceScreen, ConflictScreen
 from screens.entry import (
     SECTIONS,
@@ -59,13 +60,7 @@ from workup.quantity import Measurement, convert
 if TYPE_CHECKING:
     from workup import diagram
 
-TABS = (
-    ("f2", "tab-draw", "Draw"),
-    ("f3", "tab-case", "Case"),
-    ("f4", "tab-findings", "Findings"),
-    ("f5", "tab-causes", "Causes"),
-    ("f6", "tab-diagram", "Diagram"),
-)
+__all__ = ["JOURNAL_SECONDS", "NO_TEST", "TABS", "CaseScreen"]
 
 NO_TEST = "none"
 
@@ -99,21 +94,7 @@ def _meta(name: str, widget: Any, state_id: str) -> Horizontal:
 class CaseScreen(Screen[None]):
     """One case: draws to enter, findings to read, notes to draft."""
 
-    BINDINGS = [
-        Binding("ctrl+s", "save", "Save", id="save"),
-        Binding("ctrl+n", "new_draw", "New draw", id="new_draw"),
-        Binding("ctrl+t", "next_unit", "Unit", id="next_unit", show=False),
-        Binding("f7", "note", "Note", id="note"),
-        Binding("f8", "paste", "Paste labs", id="paste", show=False),
-        Binding("f9", "trends", "Trends", id="trends", show=False),
-        Binding("shift+f9", "compare", "Compare draws", id="compare", show=False),
-        Binding("ctrl+o", "close", "Library", id="close"),
-        Binding("ctrl+r", "backups", "Backups", id="backups", show=False),
-        # Priority: scrolling containers would otherwise take these as "page left/right".
-        Binding("ctrl+pageup", "previous_draw", "Previous draw", show=False, priority=True),
-        Binding("ctrl+pagedown", "next_draw", "Next draw", show=False, priority=True),
-        *(Binding(k, f"tab('{tid}')", name, show=False) for k, tid, name in TABS),
-    ]
+    BINDINGS = keys.BINDINGS
 
     def __init__(
         self,
@@ -1111,51 +1092,8 @@ class CaseScreen(Screen[None]):
 
     def help_context(self) -> tuple[str, list[tuple[str, str]], list[str], str]:
         """What the help screen shows for this screen."""
-        keys = [
-            ("F2 .. F6", "tabs: draw, case, findings, causes, diagram"),
-            ("Tab / Enter", "next field;  Shift+Tab: previous field"),
-            ("Ctrl+T", "switch the unit of the field (a value already read is converted)"),
-            ("Ctrl+N", "new draw, time-stamped now"),
-            ("Ctrl+PgUp/PgDn", "previous / next draw"),
-            ("s", "(findings) show the formula and source of the selected index"),
-            ("Ctrl+S", "save;  Save as, duplicate, delete draw: Ctrl+P"),
-            ("F7", "draft the note (copy or write to a file)"),
-            ("F8 / F9", "paste a lab report / trends over the draws"),
-            ("Shift+F9", "compare the draws side by side"),
-            ("Ctrl+R", "backups: earlier versions of this file, to put one back"),
-            ("Ctrl+O", "close the case and go to the library"),
-            ("Ctrl+Q", "quit (asks when changes are unsaved)"),
-        ]
-        extra = "Davenport bands (F6):\n" + band_rules_text()
-        privacy = self.session.privacy if self.session is not None else []
-        if privacy:
-            extra += "\n\nPrivacy: other users of this machine can reach this case\n"
-            extra += "\n".join(f"  {w.format()}" for w in privacy)
-        return f"case {self.case.label}", keys, self.specific_cautions(), extra
+        return keys.help_context(self)
 
     def commands(self) -> list[tuple[str, str, Callable[[], Any]]]:
         """Palette entries for every action of this screen."""
-        cmds: list[tuple[str, str, Callable[[], Any]]] = [
-            ("Save", "Save the case to its file", self.action_save),
-            ("Save as…", "Save the case under a new file name", self.action_save_as),
-            ("Duplicate case", "Open a copy of this case as a new, unsaved case",
-             lambda: self.app.duplicate_case(self)),  # type: ignore[attr-defined]
-            ("New case", "Start a new, empty case", lambda: self.app.new_case()),  # type: ignore[attr-defined]
-            ("Close case", "Return to the library", self.action_close),
-            ("Backups…", "Earlier versions of this case's file; put one back (Ctrl+R)",
-             self.action_backups),
-            ("New draw", "Add an empty draw, time-stamped now", self.action_new_draw),
-            ("Copy draw", "Add a new draw holding this draw's values", self.action_copy_draw),
-            ("Delete draw", "Remove the current draw", self.action_delete_draw),
-            ("Previous draw", "Show the draw before this one", self.action_previous_draw),
-            ("Next draw", "Show the draw after this one", self.action_next_draw),
-            ("Switch unit", "Next unit for the focused value field", self.action_next_unit),
-            ("Draft note", "Draft, edit, copy or write the note", self.action_note),
-            ("Paste lab report", "Read pasted lab text into this draw", self.action_paste),
-            ("Trends", "Values over the case's draws", self.action_trends),
-            ("Compare draws", "The draws side by side", self.action_compare),
-        ]  # fmt: skip
-        for key, tid, name in TABS:
-            cmds.append((f"Show {name.lower()}", f"The {name} tab ({key.upper()})",
-                         lambda tid=tid: self.action_tab(tid)))  # fmt: skip
-        return cmds
+        return keys.palette_commands(self)
