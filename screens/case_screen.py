@@ -8,6 +8,11 @@ The case is open through a :class:`workup.session.CaseSession` (see screens/pers
 working copy is journaled to a draft every few seconds when it changed and on every draw change,
 so a crash or a dropped line loses at most the last few seconds; a save that would overwrite a
 file changed on disk shows the differences and asks first.
+
+This class is the coordinator: it holds the working copy and the session, composes one pane per
+tab (screens/case/*_pane.py), hears their messages (screens/case/messages.py) and answers by
+setting their attributes and calling their methods. Its keys are screens/case/keys.py; its
+other jobs (drafts, saving, the draw list, the screens it opens) are still methods here.
 """
 
 from __future__ import annotations
@@ -15,80 +20,63 @@ from __future__ import annotations
 from collections.abc import Callable
 from datetime import datetime
 from pathlib import Path
-from typing import TYPE_CHECKING, Any
+from typing import Any
 
-from pydantic import ValidationError
-from rich.text import Text
-from textual import on
+from textual import events, on
 from textual.app import ComposeResult
-from textual.containers import Horizontal, VerticalScroll
 from textual.screen import Screen
 from textual.timer import Timer
-from textual.widgets import (
-    Footer,
-    Input,
-    Select,
-    Static,
-    TabbedContent,
-    TabPane,
-)
+from textual.widgets import Footer, Input, Static, TabbedContent
 
 from screens import persistence
 from screens.case import keys
+from screens.case.case_pane import CasePane
+from screens.case.causes_pane import CausesPane
+from screens.case.diagram_pane import DiagramPane
+from screens.case.draw_pane import NO_TEST, DrawPane
+from screens.case.findings_pane import FindingsPane
 from screens.case.keys import TABS
-from screens.davenport import DavenportView
+from screens.case.messages import DrawChosen, UnitSystemChanged, WorkingCopyEdited
+from screens.case.pane_base import WorkspacePane
 from screens.dialogs import AskScreen, ChoiceScreen, ConflictScreen
-from screens.entry import (
-    SECTIONS,
-    EntryInput,
-    EntrySelect,
-    FieldReading,
-    ValueField,
-    default_unit,
-    read_field,
-    shown_text,
-    unit_choices,
-)
-from screens.findings_view import CausesView, FindingsView
-from screens.flags import FlagList
-from workup.analytes import Panel, UnitSystem
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
-from workup.model import Case, Draw, GasSample, LoadingTest, Patient, Sex
-from workup.quantity import Measurement, convert
-
-if TYPE_CHECKING:
-    from workup import diagram
+from workup.model import Case, Draw
 
 __all__ = ["JOURNAL_SECONDS", "NO_TEST", "TABS", "CaseScreen"]
-
-NO_TEST = "none"
 
 JOURNAL_SECONDS = 3.0
 """How often unsaved edits are written to the draft (only when something changed since)."""
 
 
-def _same(a: Measurement | None, b: Measurement | None) -> bool:
-    if a is None or b is None:
-        return a is b
-    return (a.value, a.unit, a.word) == (b.value, b.unit, b.word)
+def fresh_draw(draws: list[Draw], clock: Callable[[], datetime]) -> Draw:
+    """An empty draw time-stamped now (to the minute), labelled apart from ``draws``."""
+    labels = {d.label for d in draws}
+    n = len(draws) + 1
+    while f"draw {n}" in labels:
+        n += 1
+    taken = clock().replace(second=0, microsecond=0)
+    return Draw(label=f"draw {n}", taken=taken)
 
 
-def _input(value: str, id_: str, max_length: int) -> Input:
-    return EntryInput(value, id=id_, compact=True, max_length=max_length, validate_on=[])
+def save_as_target(answer: str, cases_dir: Path) -> Path:
+    """The file a "save as" answer names: in the library folder unless absolute, as YAML."""
+    target = Path(answer).expanduser()
+    if not target.is_absolute():
+        target = cases_dir / target
+    if target.suffix not in (".yaml", ".yml"):
+        target = target.with_name(target.name + ".yaml")
+    return target
 
 
-def _select(options: list[tuple[str, Any]], value: Any, id_: str) -> Select:
-    return EntrySelect(options, value=value, id=id_, allow_blank=False, compact=True)
-
-
-def _meta(name: str, widget: Any, state_id: str) -> Horizontal:
-    return Horizontal(
-        Static(name, classes="field-name"),
-        widget,
-        Static("", id=state_id, classes="meta-state"),
-        classes="field-row meta-row",
-    )
+def saved_message(path: Path, refused: int, result: persistence.SaveResult) -> str:
+    """What the fellow is told after a save: where, and what it did not keep."""
+    extra = f" {refused} refused value(s) were not saved." if refused else ""
+    if result.backup is not None:
+        extra += " The previous version is kept (Ctrl+R lists backups)."
+    if result.note:
+        extra += f" Comments could not be kept: {result.note}."
+    return f"Saved to {path}.{extra}"
 
 
 class CaseScreen(Screen[None]):
@@ -125,91 +113,46 @@ class CaseScreen(Screen[None]):
         self.dirty = dirty
         self.start_tab = start_tab
         if not self.case.draws:
-            self.case.draws.append(self._fresh_draw())
+            self.case.draws.append(fresh_draw(self.case.draws, clock))
         self.index = len(case.draws) - 1
         self.assessment: Assessment | None = None
         self.error: str | None = None
-        # Refused text by (draw index, panel, key): shown again, never saved silently.
-        self.pending: dict[tuple[int, Panel, str], str] = {}
-        self.readings: dict[tuple[Panel, str], FieldReading] = {}
-        self.meta_problems: dict[str, str] = {}
-        self._fields: dict[tuple[Panel, str], ValueField] = {}
-        self._focused: ValueField | None = None
+        self.draw_pane = DrawPane(case, self.index)
+        self.case_pane = CasePane(case)
+        self.findings_pane = FindingsPane()
+        self.causes_pane = CausesPane()
+        self.diagram_pane = DiagramPane()
+        self.panes: dict[str | None, WorkspacePane] = {
+            p.id: p
+            for p in (
+                self.draw_pane,
+                self.case_pane,
+                self.findings_pane,
+                self.causes_pane,
+                self.diagram_pane,
+            )
+        }
+        """The tabs in order, by pane id."""
 
     # ----------------------------------------------------------------- layout
 
-    # fmt: off
     def compose(self) -> ComposeResult:
-        c, d = self.case, self.draw
-        taken = d.taken.isoformat(timespec="minutes") if d.taken else ""
-        tests = [("no loading test", NO_TEST)] + [
-            (t.value.replace("_", " "), t.value) for t in LoadingTest
-        ]
         yield Static("", id="titlebar")
         with TabbedContent(id="tabs", initial=self.start_tab):
-            with TabPane("F2 Draw", id="tab-draw"):
-                with VerticalScroll(id="entry"):
-                    yield _meta("draw", _select(self._draw_options(), self.index, "draw-select"),
-                                "draw-count")
-                    yield _meta("draw label", _input(d.label, "meta-label", 80), "st-label")
-                    yield _meta("taken (YYYY-MM-DDTHH:MM)", _input(taken, "meta-taken", 30),
-                                "st-taken")
-                    yield _meta("during loading test",
-                                _select(tests, d.during.value if d.during else NO_TEST,
-                                        "meta-during"), "st-during")
-                    for title, fields in SECTIONS:
-                        yield Static(title, classes="section")
-                        if title == "Blood gas":
-                            yield _meta("gas sample",
-                                        _select([(s.value, s.value) for s in GasSample],
-                                                d.blood_gas.sample.value, "meta-sample"),
-                                        "st-sample")
-                        for panel, key in fields:
-                            field = ValueField(panel, key)
-                            self._fields[(panel, key)] = field
-                            yield field
-                    yield Static("Draw notes", classes="section")
-                    yield _meta("notes", _input(d.notes or "", "meta-notes", 500), "st-notes")
-                yield Static("", id="field-help")
-            with TabPane("F3 Case", id="tab-case"), VerticalScroll(id="case-form"):
-                yield _meta("case label", _input(c.label, "case-label", 120), "st-clabel")
-                units = [("not set: write units", "none"), ("conventional (mg/dL)", "conventional"),
-                         ("SI (mmol/L)", "si")]
-                yield _meta("unit system",
-                            _select(units, c.units.value if c.units else "none", "case-units"),
-                            "st-units")
-                age = "" if c.patient.age is None else str(c.patient.age)
-                yield _meta("age (years)", _input(age, "case-age", 3), "st-age")
-                sexes = [("not given", "none"), ("female", "female"), ("male", "male")]
-                yield _meta("sex",
-                            _select(sexes, c.patient.sex.value if c.patient.sex else "none",
-                                    "case-sex"), "st-sex")
-                yield _meta("weight (70 kg, 154 lb)",
-                            _input(c.patient.weight or "", "case-weight", 20), "st-weight")
-                yield _meta("case notes", _input(c.notes or "", "case-notes", 2000), "st-cnotes")
-                yield Static("Clinical context (Space or Enter toggles a flag)",
-                             classes="section")
-                yield FlagList(list(c.context), id="case-context", compact=True)
-            with TabPane("F4 Findings", id="tab-findings"):
-                yield FindingsView(id="findings")
-            with TabPane("F5 Causes", id="tab-causes"):
-                yield CausesView(id="causes")
-            with TabPane("F6 Diagram", id="tab-diagram"):
-                yield DavenportView(id="davenport")
+            yield from self.panes.values()
         yield Static("", id="caution-line")
         yield Footer()
-    # fmt: on
 
     def on_mount(self) -> None:
         # Long texts read from their start, not scrolled to the cursor at their end.
         for w in self.query(".meta-row Input").results(Input):
             w.cursor_position = 0
-        self._load_draw()
+        self._show_draw()
         self._recompute()
         if self.read_only:
             # A read-only session does not journal, so nothing may be edited in it.
-            for sel in ("#entry", "#case-form"):
-                self.query_one(sel).disabled = True
+            self.draw_pane.make_read_only()
+            self.case_pane.make_read_only()
             if self.start_tab in ("tab-draw", "tab-case"):
                 self.start_tab = "tab-findings"
         else:
@@ -223,7 +166,120 @@ class CaseScreen(Screen[None]):
         # unsaved edits) is not a clean close: the lock goes, the draft stays.
         self.end_session(clean=self._left_cleanly or not self.dirty)
 
-    # ----------------------------------------------------------------- session
+    # ----------------------------------------------------------------- state
+
+    @property
+    def draw(self) -> Draw:
+        """The draw being entered."""
+        return self.case.draws[self.index]
+
+    def refused_summary(self) -> list[str]:
+        """Fields holding refused text, in words."""
+        return self.draw_pane.refused_summary()
+
+    def _mark_dirty(self) -> None:
+        self.dirty = True
+        self.changed_since_journal = True
+        self._update_title()
+
+    def _update_title(self) -> None:
+        where = self.path.name if self.path else "not saved yet"
+        mark = "* UNSAVED" if self.dirty else "saved"
+        if self.read_only:
+            mark = "READ-ONLY (open elsewhere)"
+        self.query_one("#titlebar", Static).update(
+            f"{mark} | {self.case.label} | draw {self.index + 1}/{len(self.case.draws)}: "
+            f"{self.draw.label} | {where}"
+        )
+
+    def _show_draw(self) -> None:
+        self.draw_pane.show_draw(self.index)
+        self._update_title()
+
+    # ----------------------------------------------------------------- from the panes
+
+    @on(WorkingCopyEdited)
+    def _working_copy_edited(self, event: WorkingCopyEdited) -> None:
+        event.stop()
+        self._mark_dirty()
+        if event.recompute:
+            self._recompute()
+
+    @on(UnitSystemChanged)
+    def _units_changed(self, event: UnitSystemChanged) -> None:
+        event.stop()
+        self._mark_dirty()
+        self.draw_pane.follow_units()
+        self._recompute()
+
+    @on(DrawChosen)
+    def _draw_chosen(self, event: DrawChosen) -> None:
+        event.stop()
+        if event.index != self.index:
+            self.switch_draw(event.index)
+
+    def on_descendant_focus(self, event: events.DescendantFocus) -> None:
+        # Anywhere on the screen: focus outside the draw form means no value field is focused.
+        self.draw_pane.follow_focus(event.widget)
+
+    # ----------------------------------------------------------------- assessment
+
+    def _recompute(self) -> None:
+        try:
+            self.assessment = assess(self.case, self.draw.label, self.overrides)
+            self.error = None
+        except Exception as exc:  # a half-built core must not take the app down
+            self.assessment = None
+            self.error = f"The assessment could not be computed: {type(exc).__name__}: {exc}"
+        self.findings_pane.show(self.assessment, self.error)
+        self.causes_pane.show(self.assessment, self.error)
+        self._update_diagram()
+        self._update_cautions()
+        self._update_title()
+
+    @on(TabbedContent.TabActivated)
+    def _tab_shown(self, event: TabbedContent.TabActivated) -> None:
+        if event.pane.id == "tab-diagram":
+            self._update_diagram()
+
+    def _update_diagram(self) -> None:
+        # Drawn only while visible: the geometry needs numpy, which start-up should not wait for.
+        if self.query_one(TabbedContent).active != "tab-diagram":
+            return
+        self.diagram_pane.plot(self.case, self.index, self.assessment)
+
+    def specific_cautions(self) -> list[str]:
+        """The cautions of this case and draw (without the standing ones)."""
+        if self.assessment is None:
+            return [self.error] if self.error else []
+        return [c for c in self.assessment.cautions if c not in CAUTION_LINES]
+
+    def _update_cautions(self) -> None:
+        own = self.specific_cautions()
+        line = self.query_one("#caution-line", Static)
+        if own:
+            line.update(f"! {len(own)} caution(s), F1 lists all: {own[0]}")
+        else:
+            line.update(f"! {CAUTION_SHORT} (F1)")
+
+    # ----------------------------------------------------------------- actions
+
+    def action_tab(self, tab_id: str) -> None:
+        """Show one tab and focus its content (the tab bar when it has nothing to focus)."""
+        tabs = self.query_one(TabbedContent)
+        tabs.active = tab_id
+        target = self.panes[tab_id].focus_target()
+        (target if target is not None else tabs.query_one("Tabs")).focus()
+
+    def action_next_unit(self) -> None:
+        """Switch the focused field to its next unit, converting a value already read."""
+        if self._refuse_if_read_only():
+            return
+        if self.draw_pane.next_unit():
+            self._mark_dirty()
+            self._recompute()
+
+    # ----------------------------------------------------------------- session and drafts
 
     @property
     def read_only(self) -> bool:
@@ -268,433 +324,22 @@ class CaseScreen(Screen[None]):
         self.journal_problem = None
         return written
 
-    # ----------------------------------------------------------------- state
-
-    @property
-    def draw(self) -> Draw:
-        """The draw being entered."""
-        return self.case.draws[self.index]
-
-    def _draw_options(self) -> list[tuple[str, int]]:
-        out = []
-        for i, x in enumerate(self.case.draws):
-            text = f"{i + 1}. {x.label}"
-            if x.taken is not None:
-                text += f", {x.taken:%d %b %H:%M}"
-            if x.during is not None:
-                text += ", loading"
-            out.append((text, i))
-        return out
-
-    def _fresh_draw(self) -> Draw:
-        labels = {d.label for d in self.case.draws}
-        n = len(self.case.draws) + 1
-        while f"draw {n}" in labels:
-            n += 1
-        taken = self.clock().replace(second=0, microsecond=0)
-        return Draw(label=f"draw {n}", taken=taken)
-
-    def _mark_dirty(self) -> None:
-        self.dirty = True
-        self.changed_since_journal = True
-        self._update_title()
-
-    def _update_title(self) -> None:
-        where = self.path.name if self.path else "not saved yet"
-        mark = "* UNSAVED" if self.dirty else "saved"
+    def _refuse_if_read_only(self) -> bool:
         if self.read_only:
-            mark = "READ-ONLY (open elsewhere)"
-        self.query_one("#titlebar", Static).update(
-            f"{mark} | {self.case.label} | draw {self.index + 1}/{len(self.case.draws)}: "
-            f"{self.draw.label} | {where}"
-        )
-
-    def _system(self) -> UnitSystem | None:
-        return self.case.units
-
-    def _quiet(self):
-        # Values the screen sets itself must not come back as edits: a late Changed message
-        # would otherwise be applied to whichever draw is showing when it arrives.
-        return self.prevent(Input.Changed, Select.Changed, FlagList.Toggled)
-
-    def _set_input(self, selector: str, text: str) -> None:
-        w = self.query_one(selector, Input)
-        if w.value != text:
-            with self._quiet():
-                w.value = text
-
-    def _set_select(self, selector: str, value: str) -> None:
-        w = self.query_one(selector, Select)
-        if w.value != value:
-            with self._quiet():
-                w.value = value
-
-    def _load_draw(self) -> None:
-        """Fill the form from the current draw (and the refused text kept for it)."""
-        d = self.draw
-        select = self.query_one("#draw-select", Select)
-        with self._quiet():
-            select.set_options(self._draw_options())
-            select.value = self.index
-        self.query_one("#draw-count", Static).update(
-            f"{self.index + 1} of {len(self.case.draws)}  (Ctrl+PgUp/PgDn)"
-        )
-        self.meta_problems.clear()
-        self._set_input("#meta-label", d.label)
-        self._set_input("#meta-taken", d.taken.isoformat(timespec="minutes") if d.taken else "")
-        self._set_select("#meta-during", d.during.value if d.during else NO_TEST)
-        self._set_select("#meta-sample", d.blood_gas.sample.value)
-        self._set_input("#meta-notes", d.notes or "")
-        for st in ("st-label", "st-taken"):
-            self.query_one(f"#{st}", Static).update("")
-        for (panel, key), field in self._fields.items():
-            m = getattr(d.panel(panel), key)
-            if m is not None:
-                unit, text = m.unit, shown_text(m)
-            else:
-                unit = self._unit_for(field)
-                text = self.pending.get((self.index, panel, key), "")
-            field.show_unit(unit)
-            if field.input.value != text:
-                with self._quiet():
-                    field.input.value = text
-            reading = read_field(field.analyte, text, unit, self._system())
-            self.readings[(panel, key)] = reading
-            field.show_reading(reading)
-        self._update_title()
-        self._update_help()
-
-    def _unit_for(self, field: ValueField) -> str | None:
-        # Keep a unit the fellow chose for this analyte; otherwise the case default.
-        if field.unit is not None and field.unit in unit_choices(field.analyte):
-            return field.unit
-        return default_unit(field.analyte, self._system())
-
-    # ----------------------------------------------------------------- editing
-
-    @on(Input.Changed, ".field-input")
-    def _value_changed(self, event: Input.Changed) -> None:
-        if event.value != event.input.value:
-            return  # superseded by a later value of the same input
-        field = next(a for a in event.input.ancestors if isinstance(a, ValueField))
-        self._apply_field(field, event.value)
-
-    def _apply_field(self, field: ValueField, text: str) -> None:
-        reading = read_field(field.analyte, text, field.unit, self._system())
-        key = (self.index, field.panel, field.key)
-        if reading.problem:
-            self.pending[key] = text
-        else:
-            self.pending.pop(key, None)
-        m = reading.measurement
-        if m is not None and m.unit != field.unit and not m.word:
-            field.show_unit(m.unit)
-        self.readings[(field.panel, field.key)] = reading
-        field.show_reading(reading)
-        panel = self.draw.panel(field.panel)
-        if not _same(getattr(panel, field.key), m):
-            setattr(panel, field.key, m)
-            self._mark_dirty()
-            self._recompute()
-        if field is self._focused:
-            self._update_help()
-
-    @on(Input.Changed, "#meta-label")
-    def _label_changed(self, event: Input.Changed) -> None:
-        text = event.value.strip()
-        others = {d.label for i, d in enumerate(self.case.draws) if i != self.index}
-        problem = None
-        if not text:
-            problem = "x refused: a draw needs a label"
-        elif text in others:
-            problem = "x refused: another draw has this label"
-        elif text != self.draw.label:
-            self.draw.label = text
-            self._refresh_draw_options()
-            self._mark_dirty()
-            self._recompute()
-        self._meta_state("st-label", problem)
-
-    @on(Input.Changed, "#meta-taken")
-    def _taken_changed(self, event: Input.Changed) -> None:
-        text = event.value.strip()
-        problem = None
-        try:
-            taken = datetime.fromisoformat(text) if text else None
-        except ValueError:
-            taken, problem = self.draw.taken, "x refused: write e.g. 2026-11-30T08:15"
-        if problem is None and taken != self.draw.taken:
-            self.draw.taken = taken
-            self._refresh_draw_options()
-            self._mark_dirty()
-            self._recompute()
-        self._meta_state("st-taken", problem)
-
-    @on(Input.Changed, "#meta-notes")
-    def _draw_notes_changed(self, event: Input.Changed) -> None:
-        notes = event.value.strip() or None
-        if notes != self.draw.notes:
-            self.draw.notes = notes
-            self._mark_dirty()
-
-    @on(Select.Changed, "#meta-during")
-    def _during_changed(self, event: Select.Changed) -> None:
-        during = None if event.value in (NO_TEST, Select.NULL) else LoadingTest(event.value)
-        if during != self.draw.during:
-            self.draw.during = during
-            self._refresh_draw_options()
-            self._mark_dirty()
-            self._recompute()
-
-    @on(Select.Changed, "#meta-sample")
-    def _sample_changed(self, event: Select.Changed) -> None:
-        if event.value is Select.NULL:
-            return
-        sample = GasSample(event.value)
-        if sample != self.draw.blood_gas.sample:
-            self.draw.blood_gas.sample = sample
-            self._mark_dirty()
-            self._recompute()
-
-    @on(Select.Changed, "#draw-select")
-    def _draw_chosen(self, event: Select.Changed) -> None:
-        if isinstance(event.value, int) and event.value != self.index:
-            self.switch_draw(event.value)
-
-    @on(Input.Changed, "#case-label")
-    def _case_label_changed(self, event: Input.Changed) -> None:
-        text = event.value.strip()
-        if not text:
-            self._meta_state("st-clabel", "x refused: a case needs a label")
-            return
-        self._meta_state("st-clabel", None)
-        if text != self.case.label:
-            self.case.label = text
-            self._mark_dirty()
-            self._recompute()
-
-    @on(Input.Changed, "#case-notes")
-    def _case_notes_changed(self, event: Input.Changed) -> None:
-        notes = event.value.strip() or None
-        if notes != self.case.notes:
-            self.case.notes = notes
-            self._mark_dirty()
-
-    @on(Select.Changed, "#case-units")
-    def _units_changed(self, event: Select.Changed) -> None:
-        units = None if event.value in ("none", Select.NULL) else UnitSystem(event.value)
-        if units == self.case.units:
-            return
-        self.case.units = units
-        self._mark_dirty()
-        for (panel, key), field in self._fields.items():
-            if getattr(self.draw.panel(panel), key) is None and field.analyte.ambiguous:
-                field.show_unit(default_unit(field.analyte, units))
-                self._apply_field(field, field.input.value)
-        self._recompute()
-
-    def _patient_update(self, name: str, value: Any, state_id: str) -> None:
-        data = self.case.patient.model_dump()
-        data[name] = value
-        try:
-            patient = Patient.model_validate(data)
-        except ValidationError as exc:
-            self._meta_state(
-                state_id, "x refused: " + exc.errors()[0]["msg"].removeprefix("Value error, ")
+            who = self.session.holder.describe() if self.session and self.session.holder else ""
+            self.notify(
+                f"Read-only: this case is open in another session {who}. Close it there, "
+                "then open it again here to edit.",
+                severity="warning",
             )
-            return
-        self._meta_state(state_id, None)
-        if patient != self.case.patient:
-            self.case.patient = patient
-            self._mark_dirty()
-            self._recompute()
+        return self.read_only
 
-    @on(Input.Changed, "#case-age")
-    def _age_changed(self, event: Input.Changed) -> None:
-        text = event.value.strip()
-        if text and not text.isdigit():
-            self._meta_state("st-age", "x refused: whole years, e.g. 54")
-            return
-        self._patient_update("age", int(text) if text else None, "st-age")
-
-    @on(Input.Changed, "#case-weight")
-    def _weight_changed(self, event: Input.Changed) -> None:
-        self._patient_update("weight", event.value.strip() or None, "st-weight")
-
-    @on(Select.Changed, "#case-sex")
-    def _sex_changed(self, event: Select.Changed) -> None:
-        sex = None if event.value in ("none", Select.NULL) else Sex(event.value)
-        self._patient_update("sex", sex, "st-sex")
-
-    @on(FlagList.Toggled, "#case-context")
-    def _context_changed(self, event: FlagList.Toggled) -> None:
-        flags = event.flags
-        if flags != list(self.case.context):
-            self.case.context = flags
-            self._mark_dirty()
-            self._recompute()
-
-    def _meta_state(self, state_id: str, problem: str | None) -> None:
-        if problem:
-            self.meta_problems[state_id] = problem
-        else:
-            self.meta_problems.pop(state_id, None)
-        self.query_one(f"#{state_id}", Static).update(problem or "")
-
-    def _refresh_draw_options(self) -> None:
-        select = self.query_one("#draw-select", Select)
-        with self._quiet():
-            select.set_options(self._draw_options())
-            select.value = self.index
-        self._update_title()
-
-    # ----------------------------------------------------------------- focus and help line
-
-    def on_descendant_focus(self, event) -> None:
-        widget = event.widget
-        field = next((a for a in widget.ancestors if isinstance(a, ValueField)), None)
-        self._focused = field
-        self._update_help()
-
-    def _update_help(self) -> None:
-        help_line = self.query_one("#field-help", Static)
-        field = self._focused
-        if field is None:
-            help_line.update(
-                "Tab/Enter: next field  Shift+Tab: back  Ctrl+N: new draw  F4: findings  F1: help"
-            )
-            return
-        reading = self.readings.get((field.panel, field.key), FieldReading(None))
-        a = field.analyte
-        units = ", ".join(u or "no unit" for u in unit_choices(a))
-        out = Text()
-        out.append(f"{a.name} ({field.panel.value.replace('_', ' ')})", style="bold")
-        shown = field.unit if field.unit is not None else "no unit chosen"
-        out.append(f" in {shown or 'no unit'}; units {units}")
-        if len(unit_choices(a)) > 1:
-            out.append(" (Ctrl+T switches)")
-        if a.words:
-            out.append("; grades: " + ", ".join(a.words))
-        if reading.problem and field.unit is None and "ambiguous" in reading.problem:
-            out.append(
-                "\nx refused: no unit yet. Ctrl+T picks one, or set the case's unit system on F3.",
-                style="bold",
-            )
-        elif reading.problem:
-            out.append("\nx refused: " + reading.problem, style="bold")
-        elif reading.caution:
-            out.append("\n! " + reading.caution, style="bold")
-        elif reading.measurement is not None:
-            m = reading.measurement
-            canon = f"{m.canonical:g} {a.canonical}".strip()
-            out.append(f"\n+ read as {canon}")
-        help_line.update(out)
-
-    # ----------------------------------------------------------------- assessment
-
-    def _recompute(self) -> None:
-        try:
-            self.assessment = assess(self.case, self.draw.label, self.overrides)
-            self.error = None
-        except Exception as exc:  # a half-built core must not take the app down
-            self.assessment = None
-            self.error = f"The assessment could not be computed: {type(exc).__name__}: {exc}"
-        a = self.assessment
-        self.query_one(FindingsView).show(a, self.error)
-        self.query_one(CausesView).show(a, self.error)
-        self._update_diagram()
-        self._update_cautions()
-        self._update_title()
-
-    def _point(self, d: Draw) -> tuple[diagram.Point | None, str]:
-        from workup import diagram
-
-        return diagram.point_for(
-            d.blood_gas.canonical("ph"),
-            d.blood_gas.canonical("bicarbonate"),
-            d.serum.canonical("bicarbonate"),
-            d.blood_gas.canonical("pco2"),
-            d.label,
-        )
-
-    @on(TabbedContent.TabActivated)
-    def _tab_shown(self, event: TabbedContent.TabActivated) -> None:
-        if event.pane.id == "tab-diagram":
-            self._update_diagram()
-
-    def _update_diagram(self) -> None:
-        # Drawn only while visible: the geometry needs numpy, which start-up should not wait for.
-        if self.query_one(TabbedContent).active != "tab-diagram":
-            return
-        point, source = self._point(self.draw)
-        others = tuple(
-            p
-            for i, d in enumerate(self.case.draws)
-            if i != self.index and (p := self._point(d)[0]) is not None
-        )
-        check = self.assessment.indices.get("henderson_hasselbalch_ph") if self.assessment else None
-        self.query_one(DavenportView).show(point, source, others, check)
-
-    def specific_cautions(self) -> list[str]:
-        """The cautions of this case and draw (without the standing ones)."""
-        if self.assessment is None:
-            return [self.error] if self.error else []
-        return [c for c in self.assessment.cautions if c not in CAUTION_LINES]
-
-    def _update_cautions(self) -> None:
-        own = self.specific_cautions()
-        line = self.query_one("#caution-line", Static)
-        if own:
-            line.update(f"! {len(own)} caution(s), F1 lists all: {own[0]}")
-        else:
-            line.update(f"! {CAUTION_SHORT} (F1)")
-
-    # ----------------------------------------------------------------- actions
-
-    def action_tab(self, tab_id: str) -> None:
-        """Show one tab."""
-        self.query_one(TabbedContent).active = tab_id
-        if tab_id == "tab-findings":
-            self.query_one("#indices").focus()
-        elif tab_id == "tab-causes":
-            self.query_one(CausesView).focus()
-        elif tab_id == "tab-draw":
-            (self._focused.input if self._focused else self.query_one("#in-serum-sodium")).focus()
-        elif tab_id == "tab-case":
-            self.query_one("#case-label").focus()
-        else:
-            self.query_one(TabbedContent).query_one("Tabs").focus()
-
-    def action_next_unit(self) -> None:
-        """Switch the focused field to its next unit, converting a value already read."""
-        if self._refuse_if_read_only():
-            return
-        field = self._focused
-        if field is None or field.analyte.words:
-            self.notify("Move to a value field to switch its unit.", severity="warning")
-            return
-        choices = unit_choices(field.analyte)
-        if len(choices) < 2:
-            self.notify(f"{field.analyte.name} has one unit only.")
-            return
-        i = choices.index(field.unit) + 1 if field.unit in choices else 0
-        new = choices[i % len(choices)]
-        m = getattr(self.draw.panel(field.panel), field.key)
-        field.show_unit(new)
-        if m is not None:
-            value = convert(field.analyte, m.canonical, new)
-            # Four significant figures keep the quantity (to 0.05%) without false precision.
-            text = f"{value:.0f}" if abs(value) >= 1000 else f"{value:.4g}"
-            with self._quiet():
-                field.input.value = text
-            self._apply_field(field, text)
-        else:
-            self._apply_field(field, field.input.value)
+    # ----------------------------------------------------------------- draws
 
     def switch_draw(self, index: int) -> None:
         """Show draw ``index`` in the form and the findings."""
         self.index = max(0, min(index, len(self.case.draws) - 1))
-        self._load_draw()
+        self._show_draw()
         self._recompute()
         if self.changed_since_journal:
             self.journal_now()  # a draw added, copied, deleted or left: journal at once
@@ -713,17 +358,17 @@ class CaseScreen(Screen[None]):
         """Add an empty draw, time-stamped now, and show it."""
         if self._refuse_if_read_only():
             return
-        self.case.draws.append(self._fresh_draw())
+        self.case.draws.append(fresh_draw(self.case.draws, self.clock))
         self._mark_dirty()
         self.switch_draw(len(self.case.draws) - 1)
         self.action_tab("tab-draw")
-        self.query_one("#meta-label", Input).focus()
+        self.draw_pane.focus_label()
 
     def action_copy_draw(self) -> None:
         """Add a copy of this draw's values as a new draw."""
         if self._refuse_if_read_only():
             return
-        new = self._fresh_draw()
+        new = fresh_draw(self.case.draws, self.clock)
         copy = self.draw.model_copy(deep=True)
         copy.label, copy.taken, copy.during = new.label, new.taken, None
         self.case.draws.append(copy)
@@ -743,11 +388,7 @@ class CaseScreen(Screen[None]):
                 return
             gone = self.index
             del self.case.draws[gone]
-            self.pending = {
-                (i if i < gone else i - 1, p, k): t
-                for (i, p, k), t in self.pending.items()
-                if i != gone
-            }
+            self.draw_pane.forget_draw(gone)
             self.switch_draw(min(gone, len(self.case.draws) - 1))
             self._mark_dirty()
 
@@ -759,23 +400,32 @@ class CaseScreen(Screen[None]):
             done,
         )
 
-    def refused_summary(self) -> list[str]:
-        """Fields holding refused text, in words."""
-        out = []
-        for (i, panel, key), text in self.pending.items():
-            field = self._fields[(panel, key)]
-            out.append(f"{self.case.draws[i].label}: {field.analyte.name} {text!r}")
-        return out
+    def action_paste(self) -> None:
+        """Read a pasted lab report into this draw (when the paste screen is available)."""
+        if self._refuse_if_read_only():
+            return
+        try:
+            from screens.paste import PasteScreen
+            from workup.paste import apply_proposal
+        except ImportError:
+            self.notify("Pasting lab reports is not available yet.", severity="warning")
+            return
 
-    def _refuse_if_read_only(self) -> bool:
-        if self.read_only:
-            who = self.session.holder.describe() if self.session and self.session.holder else ""
-            self.notify(
-                f"Read-only: this case is open in another session {who}. Close it there, "
-                "then open it again here to edit.",
-                severity="warning",
-            )
-        return self.read_only
+        def done(proposal: Any) -> None:
+            if proposal is None:
+                return
+            try:
+                updated = apply_proposal(self.draw, proposal)
+            except Exception as exc:
+                self.notify(f"The pasted values could not be applied: {exc}", severity="error")
+                return
+            self.case.draws[self.index] = updated
+            self._mark_dirty()
+            self.switch_draw(self.index)
+
+        self.app.push_screen(PasteScreen(self.case.units), done)
+
+    # ----------------------------------------------------------------- files
 
     def save_now(
         self,
@@ -812,13 +462,7 @@ class CaseScreen(Screen[None]):
         self.dirty = False
         self.changed_since_journal = False
         self._update_title()
-        refused = self.refused_summary()
-        extra = f" {len(refused)} refused value(s) were not saved." if refused else ""
-        if result.backup is not None:
-            extra += " The previous version is kept (Ctrl+R lists backups)."
-        if result.note:
-            extra += f" Comments could not be kept: {result.note}."
-        self.notify(f"Saved to {session.path}.{extra}", title="Saved")
+        self.notify(saved_message(session.path, len(self.refused_summary()), result), title="Saved")
         if then is not None:
             then()
         return True
@@ -920,11 +564,7 @@ class CaseScreen(Screen[None]):
         def done(answer: str | None) -> None:
             if not answer:
                 return
-            target = Path(answer).expanduser()
-            if not target.is_absolute():
-                target = self.cases_dir / target
-            if target.suffix not in (".yaml", ".yml"):
-                target = target.with_name(target.name + ".yaml")
+            target = save_as_target(answer, self.cases_dir)
             if target.exists() and target != self.path:
 
                 def confirm(answer: str | None) -> None:
@@ -1031,6 +671,8 @@ class CaseScreen(Screen[None]):
         self.dismiss()
         self.app.call_later(self.app.open_case, path)  # type: ignore[attr-defined]
 
+    # ----------------------------------------------------------------- other screens
+
     def action_note(self) -> None:
         """Open the note screen on the current assessment."""
         if self.assessment is None:
@@ -1046,31 +688,6 @@ class CaseScreen(Screen[None]):
                 persistence.write_note,
             )
         )
-
-    def action_paste(self) -> None:
-        """Read a pasted lab report into this draw (when the paste screen is available)."""
-        if self._refuse_if_read_only():
-            return
-        try:
-            from screens.paste import PasteScreen
-            from workup.paste import apply_proposal
-        except ImportError:
-            self.notify("Pasting lab reports is not available yet.", severity="warning")
-            return
-
-        def done(proposal: Any) -> None:
-            if proposal is None:
-                return
-            try:
-                updated = apply_proposal(self.draw, proposal)
-            except Exception as exc:
-                self.notify(f"The pasted values could not be applied: {exc}", severity="error")
-                return
-            self.case.draws[self.index] = updated
-            self._mark_dirty()
-            self.switch_draw(self.index)
-
-        self.app.push_screen(PasteScreen(self.case.units), done)
 
     def _open_optional(self, name: str) -> None:
         try:
