@@ -21,18 +21,11 @@ from pathlib import Path
 from typing import Any
 
 from workup import __version__
-from workup.library import (
-    POOL_THRESHOLD,
-    ROW_FIELDS,
-    DrawValues,
-    LibraryEntry,
-    draws_from_json,
-    entry_from_row,
-    pool_allowed,
-    scan_folder,
-    summarize_file,
-    summarize_many,
-)
+from workup.library_draws import DrawValues, draws_from_json
+from workup.library_pool import POOL_THRESHOLD, pool_allowed, summarize_many
+from workup.library_rows import ROW_FIELDS, LibraryEntry, entry_from_row
+from workup.library_scan import scan_folder
+from workup.library_summary import summarize_file
 
 INDEX_SCHEMA = 4
 """Bump when the table layout or the meaning of a column changes."""
@@ -318,7 +311,7 @@ class LibraryIndex:
 def build_in_helper(folder: Path, location: Path, overrides: dict[str, float]) -> bool:
     """Bring the index at ``location`` up to date from a separate, single-threaded process.
 
-    Used by processes that may not start a pool themselves (see workup.library.pool_allowed);
+    Used by processes that may not start a pool themselves (see workup.library_pool.pool_allowed);
     the helper may. Returns False when the helper failed (the caller then reads serially).
     """
     import subprocess
