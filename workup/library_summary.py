@@ -18,18 +18,7 @@ from typing import Any
 from workup.library_draws import STATUS_CODE, _Draw, _pack, _stored_analytes, _value_names
 from workup.library_read import _read_case, _readers
 from workup.library_rows import ROW_FIELDS
-
-
-def comparable_time(t: Any) -> Any:
-    """``t`` as a naive datetime that sorts with naive ones (a time with an offset goes to UTC).
-
-    Case files may mix local times with and without an offset; comparing those raises.
-    """
-    if t is None or t.tzinfo is None:
-        return t
-    from datetime import UTC
-
-    return t.astimezone(UTC).replace(tzinfo=None)
+from workup.timeorder import comparable_time
 
 
 @functools.lru_cache(maxsize=1)

@@ -17,8 +17,8 @@ from typing import Any
 from workup.analytes import CATALOGUE, Panel, analyte
 from workup.assess import Assessment, assess
 from workup.findings import STATUS_MARK, STATUS_WORD, Finding, Status
-from workup.library import comparable_time
 from workup.model import Case
+from workup.timeorder import comparable_time
 
 MEASURED = "measured"
 """A measured value inside the usual clinical range."""
