@@ -9,11 +9,11 @@ from __future__ import annotations
 
 import argparse
 import importlib
-import os
 import sys
 from pathlib import Path
 
 from workup import __version__
+from workup.commands._common import default_cases_dir
 
 # name -> (module under workup.commands, one-line help). Modules are imported on use.
 COMMANDS: dict[str, tuple[str, str]] = {
@@ -47,16 +47,6 @@ def _app_parser() -> argparse.ArgumentParser:
     )
     p.add_argument("--version", action="version", version=f"workup {__version__}")
     return p
-
-
-def default_cases_dir() -> Path:
-    """The case library: $WORKUP_CASES, else the per-user data folder."""
-    env = os.environ.get("WORKUP_CASES")
-    if env:
-        return Path(env).expanduser()
-    from platformdirs import user_data_path
-
-    return user_data_path("workup", appauthor=False) / "cases"
 
 
 def main(argv: list[str] | None = None) -> int:

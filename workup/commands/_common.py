@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import os
 import sys
 from pathlib import Path
 from typing import TYPE_CHECKING
@@ -50,3 +51,13 @@ def assess_or_report(path: Path, draw: str | None):
     except KeyError as exc:
         print(f"workup: {path}: {exc.args[0]}", file=sys.stderr)
         return None
+
+
+def default_cases_dir() -> Path:
+    """The case library: $WORKUP_CASES, else the per-user data folder."""
+    env = os.environ.get("WORKUP_CASES")
+    if env:
+        return Path(env).expanduser()
+    from platformdirs import user_data_path
+
+    return user_data_path("workup", appauthor=False) / "cases"

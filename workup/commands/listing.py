@@ -60,8 +60,7 @@ def _split(words: list[str]) -> tuple[Path | None, list[str]]:
 
 def run(args: argparse.Namespace) -> int:
     """List (or count) the cases; see the module docstring for exit codes."""
-    from workup.cli import default_cases_dir
-    from workup.commands._common import user_overrides
+    from workup.commands._common import default_cases_dir, user_overrides
     from workup.library import open_library, sort_entries
     from workup.search import SearchError, parse, search
 
