@@ -44,6 +44,8 @@ def main(argv: list[str] | None = None) -> int:
     print(report.machine_line(doc["machine"]))
     print()
     print(doc["table"])
+    print()
+    print("\n".join(doc["targets"]))
     # A partial run must not replace the full results the docs table was made from.
     out = args.out if args.out is not None else (None if args.only else runner.RESULTS)
     if out is not None:

@@ -39,6 +39,7 @@ from bench.sections.terminal import (
     terminal_rows,
 )
 from bench.table import Row, render
+from bench.target_report import target_lines
 
 __all__ = [
     "APP_KEYS",
@@ -104,10 +105,13 @@ def run(
     started = time.perf_counter()
     info = machine.info()
     rows: list[Row] = []
+    # Other work shares the two cores; the load at the start of each section says how much.
+    info["load_by_section"] = {}
     with tempfile.TemporaryDirectory(prefix="workup-bench-") as tmp:
         for name, (figures, fn) in SECTIONS.items():
             if only and name not in only:
                 continue
+            info["load_by_section"][name] = machine.load_average()
             work = Path(tmp) / name
             work.mkdir()
             rows += guarded(name, figures, lambda fn=fn, work=work: fn(plan, work, log), log)
@@ -118,6 +122,7 @@ def run(
         "plan": plan.__dict__,
         "rows": [r.to_json() for r in rows],
         "table": render(rows),
+        "targets": target_lines(rows),
     }
 
 
