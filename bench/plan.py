@@ -22,7 +22,10 @@ class Plan:
     """App starts on the 10,000-case library (the first one with a cold index)."""
     idle_window: float
     """Seconds of idle output measured per run."""
+    startup_pairs: int
+    """Pairs of each first screen against the minimal app (at least 5: a median of fewer is
+    one lucky run)."""
 
 
-FULL = Plan(pairs=8, sweeps=300, library_reps=3, memory_reps=3, idle_window=1.5)
-QUICK = Plan(pairs=3, sweeps=60, library_reps=1, memory_reps=2, idle_window=1.0)
+FULL = Plan(pairs=8, sweeps=300, library_reps=3, memory_reps=3, idle_window=1.5, startup_pairs=8)
+QUICK = Plan(pairs=3, sweeps=60, library_reps=1, memory_reps=2, idle_window=1.0, startup_pairs=5)

@@ -1,6 +1,6 @@
 """``make bench``: every figure, its baseline from the same run, one table and a JSON file.
 
-Sections run in turn (terminal, recompute, library, memory), one module each under
+Sections run in turn (terminal, startup, recompute, library, memory), one module each under
 bench/sections/. A section that cannot run yet (a piece of the app not built, a failure) yields
 rows marked "not measured" with the reason, so the table never silently drops a figure. The
 names the sections define stay importable from here.
@@ -31,6 +31,7 @@ from bench.sections.memory import MEMORY_FIGURES, MEMORY_LIBRARY, memory_rows
 from bench.sections.recompute import RECOMPUTE_FIGURES, recompute_rows
 from bench.sections.rows import missing_rows
 from bench.sections.rows import paired_row as _paired_row
+from bench.sections.startup import STARTUP_FIGURES, startup_rows
 from bench.sections.terminal import (
     APP_KEYS,
     APP_QUIT_KEYS,
@@ -92,6 +93,7 @@ def guarded(
 
 SECTIONS = {
     "terminal": (TERMINAL_FIGURES, terminal_rows),
+    "startup": (STARTUP_FIGURES, startup_rows),
     "recompute": (RECOMPUTE_FIGURES, recompute_rows),
     "library": (library_figures(LIBRARY_SIZES), library_rows),
     "memory": (MEMORY_FIGURES, memory_rows),
