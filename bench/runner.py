@@ -21,6 +21,7 @@ from bench.paths import DEMO_CASES, RESULTS, ROOT
 from bench.plan import FULL, QUICK, Plan
 from bench.sections.library import (
     COLD_TARGET_FILES,
+    LIBRARY_FIGURES,
     LIBRARY_SIZES,
     library_figures,
     library_rows,
@@ -49,6 +50,7 @@ __all__ = [
     "COLD_TARGET_FILES",
     "DEMO_CASES",
     "FULL",
+    "LIBRARY_FIGURES",
     "LIBRARY_SIZES",
     "MEMORY_FIGURES",
     "MEMORY_LIBRARY",
@@ -95,7 +97,7 @@ SECTIONS = {
     "terminal": (TERMINAL_FIGURES, terminal_rows),
     "startup": (STARTUP_FIGURES, startup_rows),
     "recompute": (RECOMPUTE_FIGURES, recompute_rows),
-    "library": (library_figures(LIBRARY_SIZES), library_rows),
+    "library": (LIBRARY_FIGURES, library_rows),
     "memory": (MEMORY_FIGURES, memory_rows),
 }
 
