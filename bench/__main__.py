@@ -16,7 +16,7 @@ from bench import report, runner
 def main(argv: list[str] | None = None) -> int:
     """Run the benchmarks; exit status 0 even when a target is missed (this is not a test)."""
     p = argparse.ArgumentParser(prog="python -m bench", description=__doc__)
-    p.add_argument("--quick", action="store_true", help="fewer repetitions (one to two minutes)")
+    p.add_argument("--quick", action="store_true", help="fewer repetitions")
     p.add_argument(
         "--only",
         action="append",
