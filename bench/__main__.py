@@ -16,7 +16,7 @@ from bench import report, runner
 def main(argv: list[str] | None = None) -> int:
     """Run the benchmarks; exit status 0 even when a target is missed (this is not a test)."""
     p = argparse.ArgumentParser(prog="python -m bench", description=__doc__)
-    p.add_argument("--quick", action="store_true", help="fewer repetitions (one to two minutes)")
+    p.add_argument("--quick", action="store_true", help="fewer repetitions")
     p.add_argument(
         "--only",
         action="append",
@@ -44,6 +44,8 @@ def main(argv: list[str] | None = None) -> int:
     print(report.machine_line(doc["machine"]))
     print()
     print(doc["table"])
+    print()
+    print("\n".join(doc["targets"]))
     # A partial run must not replace the full results the docs table was made from.
     out = args.out if args.out is not None else (None if args.only else runner.RESULTS)
     if out is not None:

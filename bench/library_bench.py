@@ -7,7 +7,11 @@ ratio does not depend on how busy the machine is at another moment. Each listing
 fresh ``workup list --json`` process with its own empty cache folder, so the cold figure pays
 for the interpreter, the imports and printing every row, as a fellow's first listing does.
 
-Run alone: ``python -m bench.library_bench [SIZE ...]``; a runner calls :func:`run`.
+``--shape varied`` uses the second library shape instead (bench/varied_library.py: 1–6 draws,
+notes of several lines, comments, SI files, mixed sizes).
+
+Run alone: ``python -m bench.library_bench [--shape demo|varied] [SIZE ...]``; a runner calls
+:func:`run`.
 """
 
 from __future__ import annotations
@@ -185,7 +189,22 @@ def listing_process(folder: Path, cache_home: Path) -> tuple[float, int, int]:
     return seconds, len(rows), sum(1 for r in rows if r["ok"])
 
 
-def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
+SHAPES = ("demo", "varied")
+"""The library shapes: ``demo`` (this module's generator) and ``varied`` (bench/varied_library)."""
+
+
+def generate(shape: str, folder: Path, n: int) -> list[Path]:
+    """Write a library of ``n`` invented cases of ``shape`` into ``folder``."""
+    if shape == "varied":
+        from bench.varied_library import generate_varied_library
+
+        return generate_varied_library(folder, n)
+    if shape != "demo":
+        raise ValueError(f"unknown library shape {shape!r}; choose from {SHAPES}")
+    return generate_library(folder, n)
+
+
+def run(sizes: tuple[int, ...] = (1000, 10000), shape: str = "demo") -> list[dict]:
     """One result row per library size: baseline, cold, warm and one-changed seconds and ratios.
 
     Each listing is a fresh ``workup list`` process; the baseline is parsed in this process.
@@ -195,7 +214,7 @@ def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
         with tempfile.TemporaryDirectory(prefix="workup-bench-") as tmp:
             folder = Path(tmp) / "cases"
             cache_home = Path(tmp) / "cache"
-            paths = generate_library(folder, n)
+            paths = generate(shape, folder, n)
             load_before = os.getloadavg()[0]
             baseline = yaml_baseline(paths)
             cold, listed, ok = listing_process(folder, cache_home)
@@ -206,7 +225,9 @@ def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
             rows.append(
                 {
                     "bench": "library",
+                    "shape": shape,
                     "files": n,
+                    "megabytes": round(sum(p.stat().st_size for p in paths) / 1e6, 2),
                     "cases_ok": ok,
                     "cpus": os.cpu_count(),
                     # Other work on the machine slows the pool more than the one-process baseline.
@@ -231,9 +252,14 @@ def run(sizes: tuple[int, ...] = (1000, 10000)) -> list[dict]:
 
 def main(argv: list[str] | None = None) -> int:
     """Print one JSON row per size (sizes from the command line, default 1000 and 10000)."""
-    args = sys.argv[1:] if argv is None else argv
+    args = list(sys.argv[1:] if argv is None else argv)
+    shape = "demo"
+    if "--shape" in args:
+        at = args.index("--shape")
+        shape = args[at + 1]
+        del args[at : at + 2]
     sizes = tuple(int(a) for a in args) or (1000, 10000)
-    for row in run(sizes):
+    for row in run(sizes, shape):
         print(json.dumps(row))
     return 0
 

@@ -1,7 +1,7 @@
 """Headless look at a Textual program before it is timed: widget count, focus, where a digit lands.
 
-Run in its own process (``python -m bench.probe app CASES FILE`` or ``python -m bench.probe
-baseline ROWS``); prints one JSON object. The pty benchmark uses it to size the bare baseline to the
+Run in its own process (``python -m bench.probe app CASES FILE``, ``... library CASES``,
+``... baseline ROWS`` or ``... minimal``); prints one JSON object. The pty benchmark uses it to size the bare baseline to the
 app's widget count and to check that the digit it types really reaches an input field, so that the
 keystroke figure is what it claims to be.
 """
@@ -60,12 +60,23 @@ def main(argv: list[str] | None = None) -> int:
     a.add_argument("--keys", default="", help="comma-separated keys pressed before the digit")
     b = sub.add_parser("baseline")
     b.add_argument("rows", type=int)
+    lib = sub.add_parser("library")
+    lib.add_argument("cases", type=Path)
+    sub.add_parser("minimal")
     args = p.parse_args(argv)
     if args.which == "app":
         from screens.app import build_app
 
         app = build_app(args.cases, args.file)
         keys = [k for k in args.keys.split(",") if k]
+    elif args.which == "library":
+        from screens.app import build_app
+
+        app, keys = build_app(args.cases), []
+    elif args.which == "minimal":
+        from bench.baselines.minimal_app import MinimalApp
+
+        app, keys = MinimalApp(), []
     else:
         from bench.baselines.bare_form import BareForm
 

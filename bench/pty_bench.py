@@ -24,6 +24,7 @@ from bench.terminal import Session, bytes_between, first_frame_index
 
 ROOT = Path(__file__).resolve().parent.parent
 BARE_FORM = ROOT / "bench" / "baselines" / "bare_form.py"
+MINIMAL_APP = ROOT / "bench" / "baselines" / "minimal_app.py"
 
 QUIET = 0.4
 """Seconds of silence that mean "settled".
@@ -78,6 +79,11 @@ def workup_argv(*args: str) -> list[str]:
 def baseline_argv(rows: int) -> list[str]:
     """The bare form started the same way: a Python script run by the same interpreter."""
     return [sys.executable, str(BARE_FORM), "--rows", str(rows)]
+
+
+def minimal_argv() -> list[str]:
+    """The minimal app (header, four inputs, a table, footer), started like the bare form."""
+    return [sys.executable, str(MINIMAL_APP)]
 
 
 def probe(args: list[str], env: dict[str, str], timeout: float = 60) -> dict[str, Any]:

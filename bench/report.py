@@ -37,9 +37,10 @@ def section(doc: dict[str, Any]) -> str:
     """The text that goes between the markers."""
     plan = doc.get("plan", {})
     reps = ", ".join(f"{k} {v}" for k, v in plan.items())
+    targets = doc.get("targets") or []  # absent from results written before the list existed
     return "\n".join(
         [START, "", f"Machine: {machine_line(doc['machine'])}.", "", f"Repetitions: {reps}.", "",
-         doc["table"], "", END]
+         doc["table"], "", *([*targets, ""] if targets else []), END]
     )  # fmt: skip
 
 

@@ -32,14 +32,17 @@ class Target:
     """The bound."""
     statistic: Statistic = "median"
     """Which statistic is judged: the median, the 99th percentile or the largest value."""
+    label: str = ""
+    """What kind of target it is when a row has several ("goal", "new"); empty for the first."""
 
     def text(self, unit: str) -> str:
-        """How the target reads in the table, e.g. "median ratio ≤ 1.3"."""
+        """How the target reads in the table, e.g. "median ratio ≤ 1.3" or "goal: ..."."""
         op = {"<": "<", "<=": "≤"}[self.op]
         stat = {"median": "median", "p99": "p99", "high": "max"}[self.statistic]
+        label = f"{self.label}: " if self.label else ""
         if self.of == "ratio":
-            return f"{stat} ratio {op} {self.limit:g}"
-        return f"{stat} {op} {self.limit:g} {unit}".rstrip()
+            return f"{label}{stat} ratio {op} {self.limit:g}"
+        return f"{label}{stat} {op} {self.limit:g} {unit}".rstrip()
 
 
 @dataclass
@@ -60,6 +63,9 @@ class Row:
     """Pair-by-pair ratios value/baseline."""
     target: Target | None = None
     """The goal, if the figure has one."""
+    more_targets: tuple[Target, ...] = ()
+    """Further goals judged the same way (a stricter goal beside a limit, a newer target beside
+    an earlier one); each gets its own verdict."""
     note: str = ""
     """Why a figure is missing, or what to keep in mind reading it."""
     also: tuple[Statistic, ...] = ()
@@ -69,14 +75,27 @@ class Row:
 
     @property
     def verdict(self) -> str:
-        """ "pass", "FAIL", "n/a" (not measured) or "" (no target)."""
+        """ "pass", "FAIL", "n/a" (not measured) or "" (no target), for :attr:`target`."""
         if self.target is None:
             return "" if self.value is not None else "n/a"
-        summary = self.ratio if self.target.of == "ratio" else self.value
-        if summary is None:
+        return self.judge(self.target)
+
+    @property
+    def targets(self) -> tuple[Target, ...]:
+        """Every goal of the row: :attr:`target` first, then :attr:`more_targets`."""
+        return ((self.target,) if self.target else ()) + self.more_targets
+
+    def judged(self, target: Target) -> float | None:
+        """The statistic ``target`` is judged on (None when it was not measured)."""
+        summary = self.ratio if target.of == "ratio" else self.value
+        return None if summary is None else getattr(summary, target.statistic)
+
+    def judge(self, target: Target) -> str:
+        """ "pass", "FAIL" or "n/a" (not measured) for one goal of this row."""
+        x = self.judged(target)
+        if x is None:
             return "n/a"
-        x = getattr(summary, self.target.statistic)
-        return "pass" if _COMPARE[self.target.op](x, self.target.limit) else "FAIL"
+        return "pass" if _COMPARE[target.op](x, target.limit) else "FAIL"
 
     def to_json(self) -> dict[str, Any]:
         """A plain dict for bench/results/latest.json."""
@@ -89,12 +108,15 @@ class Row:
             "ratio": self.ratio.to_json() if self.ratio else None,
             "target": self.target.text(self.unit) if self.target else None,
             "verdict": self.verdict,
+            "more_targets": [
+                {"target": t.text(self.unit), "verdict": self.judge(t)} for t in self.more_targets
+            ],
             "note": self.note,
             "extra": self.extra,
         }
 
 
-def _num(x: float) -> str:
+def number_text(x: float) -> str:
     """A number with about three significant figures, no exponent for everyday sizes."""
     if x == 0:
         return "0"
@@ -113,10 +135,10 @@ def _num(x: float) -> str:
 def spread(s: Summary) -> str:
     """The spread of a summary: the IQR from 4 measurements up, else the range; with n."""
     if s.n >= 4:
-        return f"IQR {_num(s.q1)}–{_num(s.q3)}, n={s.n}"
+        return f"IQR {number_text(s.q1)}–{number_text(s.q3)}, n={s.n}"
     if s.n == 1:
         return "n=1"
-    return f"range {_num(s.low)}–{_num(s.high)}, n={s.n}"
+    return f"range {number_text(s.low)}–{number_text(s.high)}, n={s.n}"
 
 
 def cells(row: Row) -> list[str]:
@@ -124,19 +146,19 @@ def cells(row: Row) -> list[str]:
     if row.value is None:
         value = "not measured"
     else:
-        value = f"{_num(row.value.median)} {row.unit} ({spread(row.value)})"
+        value = f"{number_text(row.value.median)} {row.unit} ({spread(row.value)})"
         shown = list(row.also)
-        if row.target is not None and row.target.statistic != "median":
-            shown.append(row.target.statistic)
+        shown += [t.statistic for t in row.targets if t.statistic != "median"]
         for stat in dict.fromkeys(shown):
             label = {"p99": "p99", "high": "max", "median": "median"}[stat]
-            value += f"; {label} {_num(getattr(row.value, stat))}"
-    base = f"{_num(row.baseline.median)} {row.unit}" if row.baseline else ""
+            value += f"; {label} {number_text(getattr(row.value, stat))}"
+    base = f"{number_text(row.baseline.median)} {row.unit}" if row.baseline else ""
     if row.baseline_name and base:
         base += f" ({row.baseline_name})"
-    ratio = f"{_num(row.ratio.median)}× ({spread(row.ratio)})" if row.ratio else ""
-    target = row.target.text(row.unit) if row.target else ""
-    return [row.figure, value, base, ratio, target, row.verdict]
+    ratio = f"{number_text(row.ratio.median)}× ({spread(row.ratio)})" if row.ratio else ""
+    target = "; ".join(t.text(row.unit) for t in row.targets)
+    verdict = "; ".join(row.judge(t) for t in row.targets) if row.targets else row.verdict
+    return [row.figure, value, base, ratio, target, verdict]
 
 
 HEADER = ["Figure", "Median (spread)", "Baseline, same run", "Ratio, pair by pair", "Target", ""]

@@ -1,0 +1,1 @@
+"""The sections of ``make bench``, one module each; each turns a Plan into table rows."""
