@@ -41,6 +41,7 @@ REGISTRY: tuple[Calculator, ...] = (
     tubular.tmp_gfr,
     tubular.fe_urate,
     kidney.egfr,
+    kidney.egfr_schwartz,
 )
 
 
