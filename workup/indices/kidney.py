@@ -128,17 +128,17 @@ def egfr_schwartz(x: DrawInputs) -> Finding:
     """Estimated GFR of a child from height and serum creatinine (bedside Schwartz, 2009)."""
     fid, name, unit = "egfr_schwartz", "eGFR (bedside Schwartz)", "mL/min/1.73 m2"
     meta = (fid, name, unit, SCHWARTZ_FORMULA, SCHWARTZ_SOURCE)
-    if x.age is not None and x.age >= ADULT_AGE:
-        # Not a missing input: the equation is for children, so an adult is never asked for a
-        # height. The value is left out rather than shown beside the CKD-EPI one.
-        why = f"age {x.age}: the bedside Schwartz equation is for children; read CKD-EPI 2021"
-        return new_finding(fid, name, None, unit, Status.not_valid, (why,), (),
-                           SCHWARTZ_FORMULA, SCHWARTZ_SOURCE)  # fmt: skip
     need = [] if "creatinine" in x.serum else ["serum.creatinine"]
     if x.age is None:
         need.append("patient.age")
     if x.height_cm is None:
         need.append("patient.height")
+    adult = x.age is not None and x.age >= ADULT_AGE
+    if need and adult:
+        # The row is for children: say so, rather than plainly asking an adult for a height.
+        why = f"used only under 18 (needs {', '.join(need)}); an adult's eGFR is CKD-EPI 2021"
+        return new_finding(fid, name, None, unit, Status.needs_input, (why,), tuple(need),
+                           SCHWARTZ_FORMULA, SCHWARTZ_SOURCE)  # fmt: skip
     if need:
         return missing(fid, name, unit, need, SCHWARTZ_FORMULA, SCHWARTZ_SOURCE)
     assert x.age is not None and x.height_cm is not None
@@ -150,7 +150,11 @@ def egfr_schwartz(x: DrawInputs) -> Finding:
     value = bedside_schwartz(x.height_cm, scr)
     _steady_state(x, j)
     low_age, high_age = SCHWARTZ_AGE_RANGE
-    if x.age < low_age:
+    if adult:
+        j.not_valid(
+            f"age {x.age}: the bedside Schwartz equation is for children; read CKD-EPI 2021"
+        )
+    elif x.age < low_age:
         j.not_valid(
             f"age {x.age}: under 1 year GFR is still maturing and the equation was derived in "
             f"children aged {low_age}–{high_age}; compare with age-specific values"
