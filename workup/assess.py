@@ -83,10 +83,12 @@ STATE_BOUND = frozenset(
         "expected_bicarbonate_respiratory_alkalosis_chronic",
         "fe_bicarbonate",
         "urine_blood_pco2",
+        "egfr_schwartz",
     }
 )
 """Indices that are not valid by design outside one acid-base state or loading test (the rule of
-another primary disorder; FEHCO3 without a bicarbonate load). Their status stays on screen, but
+another primary disorder; FEHCO3 without a bicarbonate load; the bedside Schwartz eGFR of an
+adult; for a child the CKD-EPI reason already names the age or steady-state problem). Their status stays on screen, but
 they are not repeated as case cautions, which would bury the ones that matter."""
 
 

@@ -39,6 +39,8 @@ class DrawInputs:
     """Sex as the eGFR equation uses it."""
     weight_kg: float | None = None
     """Body weight in kg."""
+    height_cm: float | None = None
+    """Height in cm (the bedside Schwartz eGFR of a child needs it)."""
     context: frozenset[Flag] = frozenset()
     """Clinical-context flags."""
     settings: Settings = DEFAULTS
@@ -89,6 +91,7 @@ def inputs_for(case: Case, draw: Draw, settings: Settings = DEFAULTS) -> DrawInp
         age=case.patient.age,
         sex=case.patient.sex,
         weight_kg=case.patient.weight_kg,
+        height_cm=case.patient.height,
         context=frozenset(case.context),
         settings=settings,
     )

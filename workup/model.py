@@ -54,6 +54,12 @@ class GasSample(StrEnum):
 
 
 _WEIGHT = re.compile(r"^\s*(\d+(?:\.\d+)?)\s*(kg|lb|lbs)\s*$", re.IGNORECASE)
+_HEIGHT = re.compile(r"^(\d+(?:\.\d+)?)\s*(?:cm)?$", re.IGNORECASE)
+
+HEIGHT_MIN_CM = 20.0
+"""Shortest height accepted: below the length of the most premature live-born infant."""
+HEIGHT_MAX_CM = 272.0
+"""Tallest height accepted: about the tallest person recorded; more is a typing error."""
 
 
 class Patient(BaseModel):
@@ -67,6 +73,32 @@ class Patient(BaseModel):
     """Sex as the eGFR equation uses it."""
     weight: str | None = None
     """Body weight with its unit, e.g. "70 kg" or "154 lb" (for loading-test doses)."""
+    height: float | None = None
+    """Height (length in infants) in centimetres, e.g. 116; the bedside Schwartz eGFR of a child
+    under 18 needs it. Optional: files written before it existed open unchanged."""
+
+    @field_validator("height", mode="before")
+    @classmethod
+    def _height(cls, v: Any) -> Any:
+        if v is None:
+            return v
+        if isinstance(v, bool):
+            raise ValueError(f"cannot read height {v!r}; write centimetres, e.g. 116")
+        text = str(v).strip()
+        # "116 cm" is accepted as well as a bare number; any other unit is refused, not guessed.
+        m = _HEIGHT.match(text)
+        if not m:
+            raise ValueError(
+                f'cannot read height {v!r}; write it in centimetres, e.g. 116 or "116 cm"'
+            )
+        cm = float(m.group(1))
+        if not HEIGHT_MIN_CM <= cm <= HEIGHT_MAX_CM:
+            raise ValueError(
+                f"height {cm:g} cm is not possible; write centimetres between "
+                f"{HEIGHT_MIN_CM:g} and {HEIGHT_MAX_CM:g} (a height in metres or inches must be "
+                "converted to cm)"
+            )
+        return cm
 
     @field_validator("weight", mode="before")
     @classmethod
@@ -225,7 +257,7 @@ class Case(BaseModel):
     label: str = Field(min_length=1, max_length=120)
     """A pseudonymous label such as "Bed 12, new acidosis"; no names or record numbers."""
     patient: Patient = Field(default_factory=Patient)
-    """Age, sex and weight as the calculators need them."""
+    """Age, sex, weight and height as the calculators need them."""
     units: UnitSystem | None = None
     """Default unit system for bare numbers of analytes whose unit differs between countries."""
     context: list[Flag] = Field(default_factory=list)

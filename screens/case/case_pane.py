@@ -51,6 +51,9 @@ class CasePane(FormPane):
                                         "case-sex"), "st-sex")
             yield meta_row("weight (70 kg, 154 lb)",
                            entry_input(c.patient.weight or "", "case-weight", 20), "st-weight")
+            height = "" if c.patient.height is None else f"{c.patient.height:g}"
+            yield meta_row("height (cm; eGFR under 18)", entry_input(height, "case-height", 10),
+                           "st-height")
             yield meta_row("case notes", entry_input(c.notes or "", "case-notes", 2000),
                            "st-cnotes")
             yield Static("Clinical context (Space or Enter toggles a flag)", classes="section")
@@ -116,6 +119,10 @@ class CasePane(FormPane):
     @on(Input.Changed, "#case-weight")
     def _weight_changed(self, event: Input.Changed) -> None:
         self._patient_update("weight", event.value.strip() or None, "st-weight")
+
+    @on(Input.Changed, "#case-height")
+    def _height_changed(self, event: Input.Changed) -> None:
+        self._patient_update("height", event.value.strip() or None, "st-height")
 
     @on(Select.Changed, "#case-sex")
     def _sex_changed(self, event: Select.Changed) -> None:

@@ -147,7 +147,7 @@ async def test_sort_and_preview(folder: Path) -> None:
         assert labels == sorted(labels, key=str.lower)
         assert not screen.shown[-1].ok  # a broken file sorts last
         current = screen.current()
-        assert current is not None and current.name == "ckd-acidosis.yaml"  # the cursor stays put
+        assert current is not None and current.name == "child-drta.yaml"  # the cursor stays put
         preview = str(screen.query_one("#lib-preview", Static).content)
         assert current.label in preview
         # Every index number in the preview is followed by its status word.
@@ -181,7 +181,7 @@ async def test_coming_back_to_the_library_rereads_changed_files(folder: Path) ->
     app = Host(folder)
     async with app.run_test(size=(80, 24)) as pilot:
         screen = await _ready(pilot)
-        await pilot.press("down", "down")
+        await pilot.press("down", "down", "down")  # gi-loss-diarrhea, fourth by file name
         await app.push_screen(TrendsScreen(screen.current_case()))
         target = folder / "gi-loss-diarrhea.yaml"
         text = target.read_text(encoding="utf-8")

@@ -47,6 +47,7 @@ draws = st.builds(
     during=st.none() | st.sampled_from(list(LoadingTest)),
     age=st.none() | st.integers(min_value=0, max_value=120),
     sex=st.none() | st.sampled_from(list(Sex)),
+    height_cm=st.none() | st.floats(min_value=20, max_value=272),
     context=st.frozensets(st.sampled_from(list(Flag)), max_size=4),
 )
 
@@ -87,7 +88,7 @@ def test_full_draw_computes_every_index():
     values = {p: {k: a.usual[1] for k, a in CATALOGUE[p].items()} for p in Panel}
     x = DrawInputs(
         serum=values[Panel.serum], gas=values[Panel.blood_gas], urine=values[Panel.urine],
-        age=50, sex=Sex.female,
+        age=50, sex=Sex.female, height_cm=165.0,
     )  # fmt: skip
     out = compute_all(x)
     assert [fid for fid, f in out.items() if f.status is Status.needs_input] == []

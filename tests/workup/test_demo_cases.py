@@ -46,6 +46,7 @@ EXPECTED: dict[str, tuple[str | None, dict[str, list[tuple[str, bool]]]]] = {
         {"6 h": [("high_gap_metabolic_acidosis", True), ("normal_gap_metabolic_acidosis", False)]},
     ),
     "respiratory-alkalosis-chronic.yaml": (None, {"ED": [("respiratory_alkalosis", True)]}),
+    "child-drta.yaml": ("distal_rta", {"clinic": [("normal_gap_metabolic_acidosis", True)]}),
 }  # fmt: skip
 
 FILES = sorted(p.name for p in CASES.glob("*.yaml"))

@@ -11,7 +11,7 @@ from __future__ import annotations
 from collections.abc import Callable
 
 from workup.findings import Finding
-from workup.indices import gas, kidney, potassium, serum_gaps, tubular, urine_acid
+from workup.indices import gas, kidney, paediatric, potassium, serum_gaps, tubular, urine_acid
 from workup.inputs import DrawInputs
 
 Calculator = Callable[[DrawInputs], Finding]
@@ -41,6 +41,7 @@ REGISTRY: tuple[Calculator, ...] = (
     tubular.tmp_gfr,
     tubular.fe_urate,
     kidney.egfr,
+    kidney.egfr_schwartz,
 )
 
 
@@ -50,4 +51,4 @@ def compute_all(x: DrawInputs) -> dict[str, Finding]:
     for calc in REGISTRY:
         f = calc(x)
         out[f.id] = f
-    return out
+    return paediatric.child_cautions(x, out)

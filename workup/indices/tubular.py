@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from workup.findings import Finding, missing
 from workup.indices._common import Judge, bicarbonate, finding, fmt, ratio
-from workup.indices.kidney import ckd_epi_2021, creatinine_mg_dl
+from workup.indices.kidney import egfr_estimate
 from workup.inputs import DrawInputs
 from workup.model import LoadingTest
 
@@ -48,13 +48,8 @@ def _fe(x: DrawInputs, key: str, plasma: float | None) -> tuple[float | None, li
 
 def _ckd_note(x: DrawInputs, j: Judge, what: str) -> None:
     """Fractional excretions rise adaptively as GFR falls; say so when the eGFR is low."""
-    if x.age is None or x.sex is None or "creatinine" not in x.serum:
-        return
-    scr = creatinine_mg_dl(x.serum["creatinine"])
-    if scr <= 0:
-        return
-    e = ckd_epi_2021(scr, x.age, x.sex)
-    if e < x.settings.egfr_ckd_below:
+    e = egfr_estimate(x)
+    if e is not None and e < x.settings.egfr_ckd_below:
         j.caution(
             f"eGFR about {fmt(e, 0)}: {what} rises adaptively in advanced kidney disease, "
             "so a high value is not by itself tubular wasting"

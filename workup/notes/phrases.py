@@ -124,7 +124,7 @@ def reading(f: Finding, brief: bool = False) -> str | None:
     """The interpretation of ``f`` in words (shorter when ``brief``), or None when it has none."""
     if f.interpretation is None:
         return None
-    if f.id == "egfr":
+    if f.id in ("egfr", "egfr_schwartz"):
         return f.interpretation if brief else f"KDIGO category {f.interpretation}"
     if brief and f.interpretation in BRIEF_READING.get(f.id, {}):
         return BRIEF_READING[f.id][f.interpretation]

@@ -17,6 +17,7 @@ from workup.context import Flag
 from workup.findings import DrawResult, Finding, Status
 from workup.formatting import fmt_number
 from workup.frozen import builder
+from workup.indices.kidney import egfr_id
 from workup.model import LoadingTest
 from workup.settings import Settings
 
@@ -156,7 +157,7 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
             if "ph" in x.urine:
                 acid_test_ph.append((x.urine["ph"], r.label))
             continue
-        _offer(out, "egfr", found.get("egfr"), r.label)
+        _offer(out, "egfr", found.get(egfr_id(x.age)), r.label)
         if not _has_normal_gap_acidosis(r):
             continue
         out.acidosis_draws.append(r.label)

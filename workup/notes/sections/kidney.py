@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from workup.findings import Status
+from workup.indices.kidney import egfr_id
 from workup.notes import phrases as ph
 from workup.notes.sections.context import Context, Section
 
@@ -15,7 +16,7 @@ _KIDNEY = (
     ("fe_urate", "the fractional excretion of urate"),
 )
 
-_KIDNEY_BRIEF = {"egfr": "the eGFR", "fe_bicarbonate": "the FEHCO3"}
+_KIDNEY_BRIEF = {"egfr": "the eGFR", "egfr_schwartz": "the eGFR", "fe_bicarbonate": "the FEHCO3"}
 
 
 def kidney_section(c: Context) -> Section:
@@ -24,6 +25,8 @@ def kidney_section(c: Context) -> Section:
     s = Section("kidney", "Kidney" if c.brief else "Kidney function and tubular studies")
     parts = []
     for id, label in _KIDNEY:
+        if id == "egfr" and egfr_id(c.case.patient.age) != id:  # a child: bedside Schwartz
+            id, label = egfr_id(c.case.patient.age), "the eGFR (bedside Schwartz)"
         f = c.finding(id)
         if f is None or f.status is Status.needs_input:
             continue
