@@ -17,6 +17,7 @@ from textual.widgets import DataTable, Static
 from workup.assess import Assessment
 from workup.findings import STATUS_MARK, STATUS_WORD, Finding, Status
 from workup.formatting import fmt_value
+from workup.short_names import short_name
 
 STATUS_STYLE = {
     Status.ok: "status-ok",
@@ -139,7 +140,7 @@ class FindingsView(Vertical):
         disorders.update(disorders_text(a))
         for f in a.indices.values():
             table.add_row(
-                f.name,
+                short_name(f.id, f.name),
                 fmt_value(f) if f.value is not None else "—",
                 status_text(f),
                 reading_words(f),

@@ -1,0 +1,26 @@
+"""First minutes at 80 x 24: what a new user sees must be whole words (invented demo case)."""
+
+from __future__ import annotations
+
+from pathlib import Path
+
+from screens.case_screen import CaseScreen
+from screens.findings_view import IndexTable
+from tests.screens.support import SIZE
+from tests.screens.support import make_app as _app
+from workup.short_names import SHORT_NAMES
+
+
+async def test_findings_names_are_whole_at_80_columns(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        table = screen.query_one(IndexTable)
+        name_width = table.ordered_columns[0].width
+        names = [str(table.get_row_at(i)[0]) for i in range(table.row_count)]
+        assert names
+        for name in names:
+            assert name in SHORT_NAMES.values(), name
+            assert len(name) <= name_width, name
