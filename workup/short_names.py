@@ -34,6 +34,7 @@ SHORT_NAMES: dict[str, str] = {
     "tmp_gfr": "TmP/GFR",
     "fe_urate": "FE urate",
     "egfr": "eGFR (CKD-EPI 2021)",
+    "egfr_schwartz": "eGFR (bedside Schwartz)",
 }
 """Short name per finding id; every id the core's calculators produce has one."""
 
