@@ -46,6 +46,10 @@ EXPECTED: dict[str, tuple[str | None, dict[str, list[tuple[str, bool]]]]] = {
         {"6 h": [("high_gap_metabolic_acidosis", True), ("normal_gap_metabolic_acidosis", False)]},
     ),
     "respiratory-alkalosis-chronic.yaml": (None, {"ED": [("respiratory_alkalosis", True)]}),
+    "incomplete-drta-stones.yaml": (
+        "incomplete_distal_rta",
+        {"baseline": [], "furosemide 2 h": [], "furosemide 4 h": [], "furosemide 6 h": []},
+    ),
 }  # fmt: skip
 
 FILES = sorted(p.name for p in CASES.glob("*.yaml"))
