@@ -48,7 +48,7 @@ EXPECTED: dict[str, tuple[str | None, dict[str, list[tuple[str, bool]]]]] = {
     "respiratory-alkalosis-chronic.yaml": (None, {"ED": [("respiratory_alkalosis", True)]}),
     "incomplete-drta-stones.yaml": (
         "incomplete_distal_rta",
-        {"baseline": [], "furosemide 2 h": [], "furosemide 4 h": [], "furosemide 6 h": []},
+        {"furosemide 2 h": [], "furosemide 4 h": [], "furosemide 6 h": [], "clinic": []},
     ),
 }  # fmt: skip
 
