@@ -40,6 +40,8 @@ class Flag(StrEnum):
     unmeasured_urine_osmoles = "unmeasured_urine_osmoles"
     liver_disease = "liver_disease"
     acute_kidney_injury = "acute_kidney_injury"
+    kidney_stones = "kidney_stones"
+    nephrocalcinosis = "nephrocalcinosis"
 
 
 MEANING: dict[Flag, str] = {
@@ -71,6 +73,8 @@ MEANING: dict[Flag, str] = {
     Flag.unmeasured_urine_osmoles: "mannitol, contrast, glycols or other unmeasured urine osmoles",
     Flag.liver_disease: "advanced liver disease",
     Flag.acute_kidney_injury: "acute kidney injury: creatinine not in a steady state",
+    Flag.kidney_stones: "kidney stones, recurrent or calcium-phosphate",
+    Flag.nephrocalcinosis: "nephrocalcinosis on imaging",
 }
 
 HYPERKALEMIA_DRUGS = frozenset(

@@ -14,6 +14,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from itertools import combinations
 
+from workup.context import Flag
 from workup.findings import NextTest, PatternCall, Verdict, new_next_test
 from workup.pattern_rules import Readings
 
@@ -212,3 +213,76 @@ def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
         scored.append((use, order, new_next_test(spec.id, spec.text, spec.why, seps)))
     scored.sort(key=lambda t: (-t[0], t[1]))
     return [t for _, _, t in scored]
+
+
+INCOMPLETE = "incomplete_distal_rta"
+STONE_FLAGS = frozenset({Flag.kidney_stones, Flag.nephrocalcinosis})
+"""History that makes an acidification test worth doing without a systemic acidosis."""
+
+WITHOUT_ACIDOSIS: tuple[SuggestedTest, ...] = (
+    SuggestedTest(
+        "acidification_test_confirm",
+        "Repeat the acidification test, or do the other one: short ammonium chloride (0.1 g/kg; "
+        "not in liver disease; check that plasma HCO3 falls) after furosemide–fludrocortisone",
+        "some people without a distal defect never reach 5.3; in stone formers a failed "
+        "furosemide–fludrocortisone test had a positive predictive value of about 30% (Dhayat "
+        "et al., CJASN 2016)",
+        {INCOMPLETE: "fails again"},
+        (),
+        (INCOMPLETE,),
+    ),
+    SuggestedTest(
+        "urine_citrate_calcium",
+        "Urine citrate and calcium (24-hour collection or per creatinine)",
+        "low citrate and high calcium fit a distal acidification defect and drive stone risk",
+        {INCOMPLETE: "low citrate, high calcium"},
+        (),
+        (INCOMPLETE,),
+    ),
+    SuggestedTest(
+        "renal_ultrasound_nephrocalcinosis",
+        "Renal ultrasound for nephrocalcinosis and stones",
+        "nephrocalcinosis makes a distal acidification defect more likely",
+        {INCOMPLETE: "nephrocalcinosis"},
+        (),
+        (INCOMPLETE,),
+    ),
+    SuggestedTest(
+        "autoimmune_screen_distal",
+        "Anti-Ro/La and other autoimmune serology",
+        "Sjögren's syndrome can cause a distal defect before any systemic acidosis",
+        {INCOMPLETE: "often positive"},
+        (),
+        (INCOMPLETE,),
+    ),
+)
+"""Tests for a case without a normal-gap acidosis (incomplete distal RTA), in order."""
+
+
+def suggest_without_acidosis(rd: Readings, call: PatternCall | None) -> list[NextTest]:
+    """Tests when no draw shows a normal-gap acidosis. Without an acidification test: one, with
+    urine citrate and calcium and an ultrasound, when stones or nephrocalcinosis are recorded.
+    After a failed test (``call`` is the incomplete distal RTA call): confirmation and the work-up
+    of a distal defect. After a passed test, or with no stone history: nothing."""
+    flags = rd.context
+    test = rd.get("acidification_test")
+    if test is None:
+        if not flags & STONE_FLAGS:
+            return []
+        wanted = (
+            "acidification_test",
+            "urine_citrate_calcium",
+            "renal_ultrasound_nephrocalcinosis",
+        )
+    elif test.word == "not_acidified" and call is not None and call.verdict is not Verdict.unlikely:
+        wanted = (
+            "acidification_test_confirm", "urine_citrate_calcium",
+            "renal_ultrasound_nephrocalcinosis", "autoimmune_screen_distal",
+        )  # fmt: skip
+    else:
+        return []
+    if Flag.nephrocalcinosis in flags:  # already imaged
+        wanted = tuple(w for w in wanted if w != "renal_ultrasound_nephrocalcinosis")
+    seps = (INCOMPLETE,) if call is not None else ()
+    specs = {t.id: t for t in (*CATALOGUE, *WITHOUT_ACIDOSIS)}
+    return [new_next_test(w, specs[w].text, specs[w].why, seps) for w in wanted]

@@ -12,13 +12,15 @@ from typing import Any
 
 from workup.findings import (
     DrawResult,
+    PatternCall,
     Ranking,
     Verdict,
     new_evidence,
     new_pattern_call,
 )
-from workup.next_tests import suggest
-from workup.pattern_rules import PATTERNS, gather, judge, missing_for
+from workup.next_tests import suggest, suggest_without_acidosis
+from workup.pattern_rules import PATTERNS, Readings, Tally, gather, judge, missing_for
+from workup.rules.causes.incomplete_distal_rta import CAUSE as INCOMPLETE
 from workup.settings import Settings
 
 LIKELY_AT = 4.0
@@ -27,6 +29,9 @@ UNLIKELY_AT = -1.0
 """Net weight at or below which a cause is called unlikely."""
 DECISIVE = 3.0
 """A single piece of evidence against of at least this weight rules out "likely"."""
+WITHOUT_ACIDOSIS = frozenset({INCOMPLETE.id})
+"""Causes judged only when no draw shows a normal-gap acidosis: the incomplete form of distal
+RTA is defined by a normal plasma bicarbonate (with an acidosis, classic distal RTA covers it)."""
 
 
 def _verdict(score: float, against: list[float]) -> Verdict:
@@ -38,8 +43,9 @@ def _verdict(score: float, against: list[float]) -> Verdict:
     return Verdict.possible
 
 
-def _no_acidosis_note(draws: list[DrawResult]) -> str:
-    """Why no draw shows a normal-gap acidosis, from each draw's primary disorder."""
+def _no_acidosis_note(draws: list[DrawResult], judged: bool = False) -> str:
+    """Why no draw shows a normal-gap acidosis, from each draw's primary disorder; ``judged``
+    when an acidification test lets incomplete distal RTA be judged all the same."""
     parts = []
     for r in draws:
         primary = next((d for d in r.disorders if d.primary), None)
@@ -67,8 +73,46 @@ def _no_acidosis_note(draws: list[DrawResult]) -> str:
             parts.append(f"{r.label}: the gap type is unknown (enter serum sodium and chloride)")
         else:
             parts.append(f"{r.label}: {primary.name.lower()}")
-    return ("No draw shows a normal-gap metabolic acidosis, so no cause is ranked: "
+    head = (
+        "only incomplete distal RTA is judged, on the acidification test"
+        if judged
+        else "no cause is ranked"
+    )
+    return (f"No draw shows a normal-gap metabolic acidosis, so {head}: "
             + "; ".join(parts) + ".")  # fmt: skip
+
+
+def _call(pid: str, name: str, tally: Tally, rd: Readings, evidence: bool) -> PatternCall:
+    """One cause's call from the tally: score, verdict and (with ``evidence``) the reasons."""
+    sup_w, ag_w = tally.weights(pid)
+    score = sum(sup_w) - sum(ag_w)
+    if not evidence:
+        return new_pattern_call(pid, name, _verdict(score, ag_w), score)
+    sup = sorted(tally.support[pid], key=lambda e: -e.weight)
+    ag = sorted(tally.against[pid], key=lambda e: -e.weight)
+    return new_pattern_call(pid, name, _verdict(score, ag_w), score, tuple(sup), tuple(ag),
+                            missing_for(pid, rd))  # fmt: skip
+
+
+def _without_acidosis(
+    draws: list[DrawResult], rd: Readings, s: Settings, evidence: bool, others: list[PatternCall]
+) -> Ranking:
+    """No normal-gap acidosis but an acidification test: judge incomplete distal RTA alone; the
+    other causes stay unlikely."""
+    tally, _ = judge(rd, s, weights_only=not evidence)
+    call = _call(INCOMPLETE.id, INCOMPLETE.name, tally, rd, evidence)
+    ranked = [*others, call] if call.verdict is Verdict.unlikely else [call, *others]
+    notes = [_no_acidosis_note(draws, judged=True)]
+    if rd.by_key["acidification_test"].word == "not_acidified":
+        notes.append(
+            "A failed acidification test supports a distal defect but does not prove it: some "
+            "people without one never reach 5.3 (specificity about 85%, Dhayat et al., CJASN 2016)."
+        )
+    if call.verdict is Verdict.possible:
+        notes.append(
+            "Incomplete distal RTA is not 'likely' yet; the suggested tests would settle it."
+        )
+    return Ranking(ranked, suggest_without_acidosis(rd, call), notes)
 
 
 def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool = True) -> Ranking:
@@ -86,23 +130,17 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool 
         calls = [
             new_pattern_call(pid, name, Verdict.unlikely, 0.0,
                         against=(new_evidence("no normal-gap metabolic acidosis in any draw"),))
-            for pid, name in PATTERNS.items()
+            for pid, name in PATTERNS.items() if pid not in WITHOUT_ACIDOSIS
         ]  # fmt: skip
-        return Ranking(calls, [], [why])
+        if draws and "acidification_test" in rd.by_key:
+            return _without_acidosis(draws, rd, settings, evidence, calls)
+        return Ranking(calls, suggest_without_acidosis(rd, None), [why])
 
     tally, nh4 = judge(rd, settings, weights_only=not evidence)
     calls = []
     for order, (pid, name) in enumerate(PATTERNS.items()):
-        sup_w, ag_w = tally.weights(pid)
-        score = sum(sup_w) - sum(ag_w)
-        if evidence:
-            sup = sorted(tally.support[pid], key=lambda e: -e.weight)
-            ag = sorted(tally.against[pid], key=lambda e: -e.weight)
-            call = new_pattern_call(pid, name, _verdict(score, ag_w), score, tuple(sup), tuple(ag),
-                               missing_for(pid, rd))  # fmt: skip
-        else:
-            call = new_pattern_call(pid, name, _verdict(score, ag_w), score)
-        calls.append((order, call))
+        if pid not in WITHOUT_ACIDOSIS:
+            calls.append((order, _call(pid, name, tally, rd, evidence)))
     calls.sort(key=lambda t: (-t[1].score, t[0]))
     ranked = [c for _, c in calls]
 

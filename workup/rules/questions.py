@@ -68,6 +68,10 @@ QUESTION: dict[str, tuple[tuple[str, ...], str]] = {
     "glucosuria": (("glucosuria",), "urine glucose with plasma glucose"),
     "fe_urate": (("fe_urate",), "FE urate"),
     "egfr": (("egfr",), "eGFR (serum creatinine, age and sex)"),
+    "acidification_test": (
+        ("acidification_test",),
+        "lowest urine pH on a furosemide–fludrocortisone or ammonium-chloride test",
+    ),
 }
 """Question → (reading keys that answer it, what to enter in words)."""
 

@@ -14,6 +14,7 @@ from workup.rules.causes import (
     gi_bicarbonate_loss,
     hyperkalemic_distal_rta,
     hypoaldosteronism,
+    incomplete_distal_rta,
     proximal_rta,
 )
 
@@ -25,6 +26,7 @@ CAUSES: tuple[Cause, ...] = (
     hypoaldosteronism.CAUSE,
     ckd_acidosis.CAUSE,
     chloride_load.CAUSE,
+    incomplete_distal_rta.CAUSE,
 )
 """Every cause the ranking judges, in the order used to break ties."""
 
