@@ -44,6 +44,7 @@ from screens.case.pane_base import WorkspacePane
 from screens.case.side_screens import SideScreens
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
+from workup.draw_focus import draw_header
 from workup.model import Case, Draw
 
 __all__ = ["JOURNAL_SECONDS", "NO_TEST", "TABS", "CaseScreen"]
@@ -201,11 +202,16 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         except Exception as exc:  # a half-built core must not take the app down
             self.assessment = None
             self.error = f"The assessment could not be computed: {type(exc).__name__}: {exc}"
-        self.findings_pane.show(self.assessment, self.error)
+        self.findings_pane.show(self.assessment, self.error, self._draw_header())
         self.causes_pane.show(self.assessment, self.error)
         self._update_diagram()
         self._update_cautions()
         self._update_title()
+
+    def _draw_header(self) -> str | None:
+        if self.assessment is None:
+            return None
+        return draw_header(self.case, self.assessment)
 
     @on(TabbedContent.TabActivated)
     def _tab_shown(self, event: TabbedContent.TabActivated) -> None:

@@ -20,14 +20,15 @@ TMUX_HINT = (
 
 
 def draft(assessment: Assessment, case: Case) -> str:
-    """The drafted note: ``workup.note`` when present, else the plain assessment text."""
+    """The drafted note (the short style, as ``workup note`` prints by default): ``workup.note``
+    when present, else the plain assessment text."""
     try:
         from workup.note import draft_note
     except ImportError:
         from workup.commands.assess import render_text
 
         return render_text(assessment)
-    return draft_note(assessment, case, style="full", fmt="text")
+    return draft_note(assessment, case, style="brief", fmt="text")
 
 
 class NoteScreen(Screen[None]):

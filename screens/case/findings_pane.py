@@ -7,6 +7,7 @@ from __future__ import annotations
 
 from textual.app import ComposeResult
 from textual.widget import Widget
+from textual.widgets import Static
 
 from screens.case.pane_base import WorkspacePane
 from screens.findings_view import FindingsView
@@ -20,11 +21,16 @@ class FindingsPane(WorkspacePane):
         super().__init__("F4 Findings", id="tab-findings")
 
     def compose(self) -> ComposeResult:
-        """The findings view (filled by ``show``)."""
+        """Which draw the findings are of (several draws only), then the findings view."""
+        yield Static("", id="findings-draw")
         yield FindingsView(id="findings")
 
-    def show(self, a: Assessment | None, error: str | None) -> None:
-        """Show assessment ``a`` (or ``error``, why there is none)."""
+    def show(self, a: Assessment | None, error: str | None, header: str | None = None) -> None:
+        """Show assessment ``a`` (or ``error``, why there is none) under ``header``, the line
+        saying which draw it is of and what the other draws are for."""
+        line = self.query_one("#findings-draw", Static)
+        line.update(header or "")
+        line.display = bool(header)
         self.query_one(FindingsView).show(a, error)
 
     def focus_target(self) -> Widget | None:

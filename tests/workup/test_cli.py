@@ -25,8 +25,11 @@ def test_assess_json_has_documented_shape(capsys) -> None:
     assert any("not a diagnosis" in c for c in out["cautions"])
 
 
-def test_assess_defaults_to_latest_draw_and_takes_a_label(capsys) -> None:
+def test_assess_defaults_to_the_draw_showing_the_acidosis_and_takes_a_label(capsys) -> None:
+    # The latest draw of the demo is a bicarbonate-loading draw; the baseline shows the acidosis.
     main(["assess", DEMO, "--json"])
+    assert json.loads(capsys.readouterr().out)["draw"] == "baseline"
+    main(["assess", DEMO, "--json", "--draw", "bicarbonate 3 h"])
     assert json.loads(capsys.readouterr().out)["draw"] == "bicarbonate 3 h"
     main(["assess", DEMO, "--json", "--draw", "baseline"])
     assert json.loads(capsys.readouterr().out)["draw"] == "baseline"

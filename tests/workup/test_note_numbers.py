@@ -21,6 +21,7 @@ import yaml
 from workup.assess import assess
 from workup.caseio import load_case
 from workup.cli import main
+from workup.draw_focus import focused_assessment
 from workup.formatting import fmt_number
 from workup.note import draft_note
 from workup.notes.render import ascii_text
@@ -101,7 +102,9 @@ def test_every_number_in_the_note_is_reported_or_entered(path, style, fmt, capsy
     reported = json_numbers(_assess_json(path, capsys))
     entered = entered_numbers(path)
     case = load_case(path)
-    note = _scrub(draft_note(assess(case), case, style, fmt), case)
+    # The draw ``workup note`` and ``workup assess`` both open on by default.
+    a, _focus = focused_assessment(case)
+    note = _scrub(draft_note(a, case, style, fmt), case)
     stray = [n for n in numbers(note) if n not in reported and float(n) not in entered]
     assert stray == [], f"numbers neither reported nor entered: {stray}"
 
@@ -114,7 +117,7 @@ def test_values_line_repeats_entered_values_and_the_rest_repeats_the_assessment(
     reported = json_numbers(_assess_json(path, capsys))
     entered = entered_numbers(path)
     case = load_case(path)
-    a = assess(case)
+    a, _focus = focused_assessment(case)
     serum_k = {d.serum.canonical("potassium") for d in case.draws if d.label == a.draw_label}
     for section in build(a, case, brief):
         texts = [section.title, *section.sentences, *section.items]
@@ -122,6 +125,9 @@ def test_values_line_repeats_entered_values_and_the_rest_repeats_the_assessment(
         if section.key == "values":
             assert found, "the values line shows no values"
             assert [n for n in found if float(n) not in entered] == []
+        elif section.key == "acid_base" and brief:
+            # The short note opens with the gas as entered, then the assessment's numbers.
+            assert [n for n in found if n not in reported and float(n) not in entered] == []
         elif section.key == "potassium":
             # The serum potassium is restated beside the kidney's handling of it.
             assert [n for n in found if n not in reported and float(n) not in serum_k] == []
@@ -145,6 +151,9 @@ def test_values_line_keeps_each_value_as_written(tmp_path) -> None:
     flat = " ".join(draft_note(assess(case), case, "full").split())
     assert "creatinine 12345.67 umol/L" in flat
     note = draft_note(assess(case), case, "brief")
+    flat = " ".join(note.split())
+    assert "pH 7.40, pCO2 4.2 kPa; serum HCO3 20 mmol/L" in flat  # the short note's gas
+    note = draft_note(assess(case), case, "full")
     flat = " ".join(note.split())
     assert "Na 139.5" in flat
     assert "K 3.0" in flat

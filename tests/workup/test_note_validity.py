@@ -53,11 +53,14 @@ UAG_NOT_VALID = Finding(
 def test_not_valid_index_is_not_stated_as_a_finding(diarrhea, style, fmt) -> None:
     case, a = diarrhea
     note = _flat(draft_note(_with(a, UAG_NOT_VALID), case, style, fmt))
-    name = "UAG" if style == "brief" else "the urine anion gap"
-    assert (
-        f"{name} was not interpretable (urine sodium 8 is below 25: too little "
-        "distal sodium delivery to read the gap)" in note
-    )
+    if style == "brief":
+        # The short note keeps the caveat's first clause (the fact that makes it not valid).
+        assert "UAG was not interpretable (urine sodium 8 is below 25)" in note
+    else:
+        assert (
+            "the urine anion gap was not interpretable (urine sodium 8 is below 25: too little "
+            "distal sodium delivery to read the gap)" in note
+        )
     assert "17.0" not in note and "+17" not in note
     assert "positive, in keeping with low ammonium" not in note
 
@@ -210,12 +213,12 @@ def test_cli_prints_the_note(capsys) -> None:
     out = capsys.readouterr().out
     case = load_case(path)
     assert out == draft_note(assess(case, "baseline"), case, "brief", "text")
-    assert '"baseline" draw' in out
+    assert 'Draw: "baseline" (2026-11-20 09:10), the acidosis; "bicarbonate 3 h" is a' in out
 
 
 def test_cli_markdown(capsys) -> None:
     path = ROOT / "cases" / "gi-loss-diarrhea.yaml"
-    assert main(["note", str(path), "--format", "markdown"]) == 0
+    assert main(["note", str(path), "--format", "markdown", "--style", "full"]) == 0
     out = capsys.readouterr().out
     assert out.startswith("## Acid-base assessment: Demo A")
     assert "| Value |" in out
@@ -320,8 +323,9 @@ def test_long_evidence_is_shortened_only_after_it_was_written_in_full(diarrhea) 
     brief = _flat(
         draft_note(dataclasses.replace(a, patterns=calls, ranking_notes=[]), case, "brief")
     )
-    assert lead not in brief  # the daily note keeps only the gist
-    assert "reads ammonium excretion as adequate: the kidney responds" in brief
+    assert lead not in brief  # the short note keeps only the deciding finding
+    assert "reads ammonium excretion as adequate" in brief
+    assert "the kidney responds" not in brief
 
 
 def test_without_a_gas_compensation_is_not_judged_and_no_band_is_given() -> None:

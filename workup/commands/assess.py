@@ -9,7 +9,8 @@ import textwrap
 from pathlib import Path
 
 from workup.assess import Assessment
-from workup.commands._common import assess_or_report
+from workup.commands._common import assess_or_report, user_overrides
+from workup.draw_focus import DrawFocus, focused_assessment, header
 from workup.findings import STATUS_MARK, STATUS_WORD
 from workup.formatting import fmt_value
 
@@ -17,7 +18,11 @@ from workup.formatting import fmt_value
 def add_arguments(p: argparse.ArgumentParser) -> None:
     """Arguments of ``workup assess``."""
     p.add_argument("file", type=Path, help="case file (YAML)")
-    p.add_argument("--draw", help="label of the draw to assess (default: the latest)")
+    p.add_argument(
+        "--draw",
+        help="label of the draw to assess (default: the latest draw showing the acidosis "
+        "that is not a loading test, else the latest)",
+    )
     p.add_argument("--json", action="store_true", help="print one JSON object")
 
 
@@ -26,12 +31,13 @@ def run(args: argparse.Namespace) -> int:
     got = assess_or_report(args.file, args.draw)
     if got is None:
         return 2
-    _case, result = got
+    case, result = got
+    result, focus = focused_assessment(case, args.draw, user_overrides())
     if args.json:
         json.dump(result.to_json(), sys.stdout, indent=2, ensure_ascii=False)
         sys.stdout.write("\n")
     else:
-        sys.stdout.write(render_text(result))
+        sys.stdout.write(render_text(result, focus if len(case.draws) > 1 else None))
     return 0
 
 
@@ -39,9 +45,13 @@ def _wrap(text: str, indent: str = "    ") -> str:
     return textwrap.fill(text, 80, initial_indent=indent, subsequent_indent=indent)
 
 
-def render_text(a: Assessment) -> str:
-    """The assessment as plain text, 80 columns wide."""
-    lines = [f"{a.case_label} - draw: {a.draw_label or 'none'}", ""]
+def render_text(a: Assessment, focus: DrawFocus | None = None) -> str:
+    """The assessment as plain text, 80 columns wide; ``focus`` adds a line saying which draw
+    is shown and why the others matter."""
+    lines = [f"{a.case_label} - draw: {a.draw_label or 'none'}"]
+    if focus is not None:
+        lines.append(_wrap(header(a, focus), ""))
+    lines.append("")
     lines.append("Acid-base disorders")
     if not a.disorders:
         lines.append("    none identified from the values entered")

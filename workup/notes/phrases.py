@@ -212,18 +212,28 @@ def clause(
     """
     if stated(f):
         words = (words_for or reading(f, brief)) if with_reading else None
-        return f"{label} is {value_of(f)}" + caution_suffix(f, words, seen)
+        return f"{label} is {value_of(f)}" + caution_suffix(f, words, seen, brief)
     if f.status is Status.not_valid:
-        why = _once(caveat(f), seen)
+        why = _gist(_once(caveat(f), seen), brief)
         return f"{label} was not interpretable" + (f" ({why})" if why else "")
     return unavailable(f, label, brief)
 
 
-def caution_suffix(f: Finding, words: str | None = None, seen: set[str] | None = None) -> str:
-    """The parenthesis after a stated value: its reading and, for a caution, the caveat."""
+def _gist(why: str | None, brief: bool) -> str | None:
+    # A short note keeps the first clause of a caveat (the fact); the full note explains it.
+    if not why or not brief:
+        return why
+    return why.split(": ")[0]
+
+
+def caution_suffix(
+    f: Finding, words: str | None = None, seen: set[str] | None = None, brief: bool = False
+) -> str:
+    """The parenthesis after a stated value: its reading and, for a caution, the caveat
+    (its first clause only when ``brief``)."""
     inner = [words] if words else []
     if f.status is Status.caution:
-        why = _once(caveat(f), seen)
+        why = _gist(_once(caveat(f), seen), brief)
         inner.append(f"read with caution: {why}" if why else "read with caution")
     return f" ({'; '.join(inner)})" if inner else ""
 

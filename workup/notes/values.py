@@ -179,3 +179,18 @@ def table_rows(draws: list[Draw], brief: bool) -> list[tuple[str, list[str]]]:
     panel_rank = {Panel.serum: 0, Panel.blood_gas: 1, Panel.urine: 2}
     order.sort(key=lambda t: (panel_rank[t[0]], list(CATALOGUE[t[0]]).index(t[1])))
     return [(f"{PANEL_WORD[p]} {name}", cells[(p, key)]) for p, key, name in order]
+
+
+def gas_line(draw: Draw) -> str | None:
+    """The gas and the serum bicarbonate as entered, e.g. "venous gas pH 7.31, pCO2 34 mmHg;
+    serum HCO3 16 mmol/L" (None when neither was entered)."""
+    groups = []
+    for panel, keys in ((Panel.blood_gas, ("ph", "pco2")), (Panel.serum, ("bicarbonate",))):
+        items = [e for e in entries(draw, False) if e.panel is panel and e.key in keys]
+        if items:
+            lead = gas_word(draw) if panel is Panel.blood_gas else PANEL_WORD[panel]
+            words = ", ".join(
+                f"{e.name} {e.number}" + (f" {e.unit}" if e.unit else "") for e in items
+            )
+            groups.append(f"{lead} {words}")
+    return "; ".join(groups) or None

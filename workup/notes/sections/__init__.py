@@ -17,6 +17,7 @@ from workup.notes.sections.acid_base import COMPENSATION_INDEX, acid_base_sectio
 from workup.notes.sections.causes import causes_section
 from workup.notes.sections.closing import caution_section, caveats_section, next_tests_section
 from workup.notes.sections.context import METABOLIC_ACIDOSES, Context, Section
+from workup.notes.sections.draw import draw_section, gas_and_gap_section
 from workup.notes.sections.entered_values import values_section
 from workup.notes.sections.evidence import LONG_LEAD
 from workup.notes.sections.gaps import gaps_section
@@ -38,17 +39,31 @@ BUILDERS = (
 )
 """The section builders in the order the note reads them; each lives in the module of its name."""
 
+BRIEF_BUILDERS = (
+    draw_section,
+    gas_and_gap_section,
+    renal_acid_section,
+    potassium_section,
+    kidney_section,
+    causes_section,
+    next_tests_section,
+    caveats_section,
+    caution_section,
+)
+"""The short note's order: the draw instead of the entered values (those stay in the full note)."""
+
 
 def build(a: Assessment, case: Case, brief: bool) -> list[Section]:
     """Every non-empty section of the note, in reading order; the caution always last."""
     c = Context(a, case, brief)
     if a.draw_label is None:
         return [values_section(c), causes_section(c), caution_section(c)]
-    sections = [b(c) for b in BUILDERS]
+    sections = [b(c) for b in (BRIEF_BUILDERS if brief else BUILDERS)]
     return [x for x in sections if x.sentences or x.items]
 
 
 __all__ = [
+    "BRIEF_BUILDERS",
     "BUILDERS",
     "COMPENSATION_INDEX",
     "LONG_LEAD",
@@ -60,7 +75,9 @@ __all__ = [
     "causes_section",
     "caution_section",
     "caveats_section",
+    "draw_section",
     "gaps_section",
+    "gas_and_gap_section",
     "kidney_section",
     "next_tests_section",
     "potassium_section",

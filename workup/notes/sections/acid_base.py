@@ -55,7 +55,9 @@ def _expected_clause(c: Context, id: str) -> str | None:
     band = ph.band_of(f)
     if ph.stated(f) and band is not None:
         # The expected range is the number that matters here; the midpoint adds nothing.
-        return f"{label} {'' if c.brief else 'is '}{band}" + ph.caution_suffix(f, None, c.said)
+        return f"{label} {'' if c.brief else 'is '}{band}" + ph.caution_suffix(
+            f, None, c.said, c.brief
+        )
     return c.clause(id, label, with_reading=False)
 
 

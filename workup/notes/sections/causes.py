@@ -45,21 +45,22 @@ def _causes_brief(c: Context, calls: list[PatternCall]) -> list[str]:
     if top.verdict is not Verdict.unlikely:
         text = f"{top.name} is {_VERDICT_WORD[top.verdict]}"
         if top.support:
-            text += f" (for: {evidence_text(top.support, c, 2)})"
-        if top.against:
-            text += f" (against: {evidence_text(top.against, c, 1)})"
+            # One or two deciding findings: the second only when both fit in about two lines.
+            two = evidence_text(top.support, c, 2)
+            text += f" (for: {two if len(two) <= 150 else evidence_text(top.support[:1], c)})"
         out.append(ph.sentence(text))
         rest = calls[1:]
     else:
         rest = calls
-    possible = [p.name for p in rest if p.verdict is not Verdict.unlikely]
-    unlikely = [p.name for p in rest if p.verdict is Verdict.unlikely]
-    if not possible and out == [] and c.a.ranking_notes:
-        return out  # nothing ranked at all: the ranking's note says why, a list adds nothing
-    if possible:
-        out.append(ph.sentence("Also possible: " + ", ".join(possible)))
-    if unlikely:
-        out.append(ph.sentence("Unlikely: " + ", ".join(unlikely)))
+    # A short note names the leading cause or causes (those sharing the top verdict) only; the
+    # rest of the ranking is in the full note.
+    tied = [p for p in rest if p.verdict is top.verdict and p.verdict is not Verdict.unlikely]
+    if out and tied:
+        out.append(
+            ph.sentence(
+                f"Equally {_VERDICT_WORD[top.verdict]}: " + ", ".join(p.name for p in tied[:2])
+            )
+        )
     return out
 
 

@@ -12,9 +12,9 @@ from workup.notes.sections.context import Context, Section
 
 
 def next_tests_section(c: Context) -> Section:
-    """The suggested tests, most useful first (the first three in a daily note)."""
+    """The suggested tests, most useful first (only the first in a short note)."""
     s = Section("next_tests", "Next" if c.brief else "Suggested next")
-    tests = c.a.next_tests[:3] if c.brief else c.a.next_tests
+    tests = c.a.next_tests[:1] if c.brief else c.a.next_tests
     if c.brief:
         if tests:
             # One sentence per test: a test's own text may hold a semicolon, and some start

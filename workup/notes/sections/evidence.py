@@ -31,10 +31,12 @@ def evidence_text(ev: tuple[Evidence, ...], c: Context, limit: int | None = None
                 if said and len(said) > 40 and said in text:
                     text = text.replace(said, "as above")
         lead, sep, why = text.rpartition(": ")
-        if sep and len(lead) > LONG_LEAD:
-            if c.brief:
-                text = f"{lead.split('; ')[0]}: {why}"  # a daily note keeps the gist
-            elif lead in c.leads:
+        if sep and c.brief:
+            # A short note keeps the deciding finding itself; what it means is in the full note.
+            text = lead.split("; ")[0]
+            c.leads.add(lead)
+        elif sep and len(lead) > LONG_LEAD:
+            if lead in c.leads:
                 text = f"{lead.split('; ')[0]}, as above: {why}"
             c.leads.add(lead)
         out.append(text)

@@ -16,13 +16,14 @@ _KIDNEY = (
     ("fe_urate", "the fractional excretion of urate"),
 )
 
-_KIDNEY_BRIEF = {"egfr": "the eGFR", "egfr_schwartz": "the eGFR", "fe_bicarbonate": "the FEHCO3"}
+_KIDNEY_BRIEF = {"fe_bicarbonate": "the FEHCO3", "urine_blood_pco2": "the U-B pCO2"}
+"""The tubular studies a short note keeps (eGFR and the rest stay in the full note)."""
 
 
 def kidney_section(c: Context) -> Section:
     """eGFR and the tubular studies that were done (absent ones are not listed as gaps here:
     the causes and suggested tests say which would help)."""
-    s = Section("kidney", "Kidney" if c.brief else "Kidney function and tubular studies")
+    s = Section("kidney", "Tubular" if c.brief else "Kidney function and tubular studies")
     parts = []
     for id, label in _KIDNEY:
         if id == "egfr" and egfr_id(c.case.patient.age) != id:  # a child: bedside Schwartz

@@ -66,7 +66,7 @@ def _k_clause(c: Context, id: str, label: str, kalemia: str | None) -> str | Non
         return c.clause(id, label)
     if c.brief:
         label = ph.BRIEF_LABEL.get(id, label)
-    return f"{label} is {ph.value_of(f)}" + ph.caution_suffix(f, words, c.said)
+    return f"{label} is {ph.value_of(f)}" + ph.caution_suffix(f, words, c.said, c.brief)
 
 
 def potassium_section(c: Context) -> Section:

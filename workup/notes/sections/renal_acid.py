@@ -26,7 +26,7 @@ def _ammonium_label(f: Finding) -> str:
 
 def renal_acid_section(c: Context) -> Section:
     """Urine pH, the urine anion and osmolal gaps or measured ammonium, with their caveats."""
-    s = Section("renal_acid", "Renal acid" if c.brief else "Renal acid excretion")
+    s = Section("renal_acid", "Ammonium" if c.brief else "Renal acid excretion")
     draw = c.draw
     if draw is not None and not draw.urine.measurements() and c.brief:
         s.sentences.append("Not assessed: no urine with this draw; a spot urine is suggested.")
@@ -43,8 +43,8 @@ def renal_acid_section(c: Context) -> Section:
         f = c.finding(id)
         if f is None:
             continue
-        if c.brief and f.status is Status.needs_input:
-            continue
+        if c.brief and (f.status is Status.needs_input or id == "urine_ph"):
+            continue  # the short note keeps the ammonium reading; urine pH is in the full one
         if c.brief and id == "urine_ammonium_estimate" and not f.extra.get("measured"):
             continue  # the daily note keeps the osmolal gap it was estimated from
         if c.brief and id == "urine_ammonium_creatinine_ratio" and parts:

@@ -1,0 +1,141 @@
+"""Which draw of a case to show first: the one that best shows the metabolic acidosis.
+
+A case often holds a baseline draw and a later loading-test draw (bicarbonate, furosemide with
+fludrocortisone, ammonium chloride). The loading draw is meant to correct or provoke the acid-base
+state, so reading it alone says "no disorder" while the causes, read from every draw, point at an
+RTA. Screens and notes that show one draw therefore open on the most recent draw whose own
+disorders include a metabolic acidosis and that was not taken during a loading test; without one,
+the latest draw. :class:`DrawFocus` also says, in words, why the other draws still matter.
+"""
+
+from __future__ import annotations
+
+from dataclasses import dataclass, field
+from typing import TYPE_CHECKING
+
+from workup.findings import DrawResult
+from workup.model import Case
+
+if TYPE_CHECKING:
+    from workup.assess import Assessment
+
+METABOLIC_ACIDOSIS_IDS = frozenset(
+    {"normal_gap_metabolic_acidosis", "high_gap_metabolic_acidosis", "metabolic_acidosis"}
+)
+"""Disorder ids that count as a metabolic acidosis (docs: workup.findings.Disorder)."""
+
+ACIDOSIS = "the acidosis"
+"""Reason given when the chosen draw shows a metabolic acidosis."""
+LATEST = "the latest draw"
+"""Reason given when no untested draw shows one and the latest draw is shown."""
+
+
+@dataclass(frozen=True, slots=True)
+class DrawFocus:
+    """The draw chosen for a one-draw view, why, and what the other draws are for."""
+
+    index: int | None
+    """Position of the chosen draw in ``case.draws`` (None for a case without draws)."""
+    label: str | None
+    """Label of the chosen draw (None for a case without draws)."""
+    reason: str
+    """Why this draw: :data:`ACIDOSIS` or :data:`LATEST`."""
+    others: list[tuple[str, str]] = field(default_factory=list)
+    """Every other draw as (label, what it is read for), in case order."""
+
+    def sentence(self) -> str:
+        """One line naming the shown draw and the part the others play, e.g. for a header."""
+        if self.label is None:
+            return "no draws yet"
+        text = f"findings of draw '{self.label}' ({self.reason})"
+        if self.others:
+            text += "; " + "; ".join(f"'{lab}' {role}" for lab, role in self.others)
+        return text
+
+
+def shows_acidosis(result: DrawResult) -> bool:
+    """True when the draw's own disorders include a metabolic acidosis."""
+    return any(d.id in METABOLIC_ACIDOSIS_IDS for d in result.disorders)
+
+
+def focus_draw(case: Case, results: list[DrawResult]) -> DrawFocus:
+    """The draw of ``case`` that best shows its metabolic acidosis, given every draw's results.
+
+    ``results`` are the per-draw results of :func:`workup.assess.assess` (``Assessment.draws``),
+    matched to the draws by label. The most recent draw (in case order) that shows a metabolic
+    acidosis and was not taken during a loading test wins; otherwise the latest draw.
+    """
+    if not case.draws:
+        return DrawFocus(None, None, LATEST)
+    by_label = {r.label: r for r in results}
+    chosen, reason = len(case.draws) - 1, LATEST
+    for i in range(len(case.draws) - 1, -1, -1):
+        draw = case.draws[i]
+        got = by_label.get(draw.label)
+        if draw.during is None and got is not None and shows_acidosis(got):
+            chosen, reason = i, ACIDOSIS
+            break
+    others = [
+        (
+            d.label,
+            _role(
+                d.during is not None,
+                shows_acidosis(by_label[d.label]) if d.label in by_label else False,
+            ),
+        )
+        for j, d in enumerate(case.draws)
+        if j != chosen
+    ]
+    return DrawFocus(chosen, case.draws[chosen].label, reason, others)
+
+
+def _role(loading: bool, acidosis: bool) -> str:
+    # Loading draws answer the test's question; other draws still feed the ranking of causes.
+    if loading:
+        return "is a loading test, read by the causes"
+    if acidosis:
+        return "also shows an acidosis and is read by the causes"
+    return "is read by the causes"
+
+
+def focused_assessment(
+    case: Case, draw_label: str | None = None, user_overrides: dict[str, float] | None = None
+) -> tuple[Assessment, DrawFocus]:
+    """The assessment of ``draw_label``, or of the focus draw when none is asked for, with the
+    focus (whose sentence a one-draw view shows). Raises KeyError for an unknown draw label."""
+    from workup.assess import assess  # here, so the choice itself needs only results
+
+    a = assess(case, draw_label, user_overrides)
+    focus = focus_draw(case, a.draws)
+    if draw_label is None and focus.label is not None and focus.label != a.draw_label:
+        a = assess(case, focus.label, user_overrides)
+    return a, focus
+
+
+def header(a: Assessment, focus: DrawFocus) -> str:
+    """The line naming the shown draw of ``a``: the focus sentence, or, for a draw asked for by
+    label, that draw and what the focus draw is."""
+    if a.draw_label is None or a.draw_label == focus.label:
+        return focus.sentence()
+    text = f"findings of draw '{a.draw_label}' (as chosen)"
+    if focus.label is not None:
+        text += f"; '{focus.label}' shows {focus.reason}"
+    return text
+
+
+def draw_header(case: Case, a: Assessment) -> str | None:
+    """The header line of a one-draw view of ``a`` (None when the case has one draw or none,
+    where there is nothing to tell apart)."""
+    if len(case.draws) < 2 or a.draw_label is None:
+        return None
+    return header(a, focus_draw(case, a.draws))
+
+
+def opening_index(case: Case, user_overrides: dict[str, float] | None = None) -> int:
+    """Position in ``case.draws`` of the draw a case view opens on (0 for a case without draws)."""
+    from workup.assess import assess
+
+    if len(case.draws) < 2:
+        return max(len(case.draws) - 1, 0)
+    index = focus_draw(case, assess(case, None, user_overrides).draws).index
+    return len(case.draws) - 1 if index is None else index
