@@ -44,7 +44,7 @@ from screens.case.pane_base import WorkspacePane
 from screens.case.side_screens import SideScreens
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
-from workup.draw_focus import draw_header
+from workup.draw_focus import draw_header, opening_index
 from workup.model import Case, Draw
 
 __all__ = ["JOURNAL_SECONDS", "NO_TEST", "TABS", "CaseScreen"]
@@ -85,7 +85,8 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         self.start_tab = start_tab
         if not self.case.draws:
             self.case.draws.append(fresh_draw(self.case.draws, clock))
-        self.index = len(case.draws) - 1
+        # Open on the draw that shows the acidosis, not a loading draw taken after it.
+        self.index = opening_index(case, self.overrides)
         self.assessment: Assessment | None = None
         self.error: str | None = None
         self.draw_pane = DrawPane(case, self.index)

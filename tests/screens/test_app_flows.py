@@ -203,8 +203,9 @@ async def test_save_writes_the_case_and_reopening_shows_the_same_findings(demo: 
         assert not screen.dirty
         first_rows = _table_rows(screen)
     saved = load_case(demo)
-    assert saved.draws[-1].serum.sodium.canonical == 140
-    assert saved.draws[0].serum.sodium.canonical == 139  # the other draw untouched
+    # The case opened on the baseline (the draw that shows the acidosis), so the edit went there.
+    assert saved.draws[0].serum.sodium.canonical == 140
+    assert saved.draws[-1].serum.sodium.canonical == 141  # the other draw untouched
     assert saved.draws[-1].during is LoadingTest.bicarbonate_loading
     app2 = _app(demo.parent, demo)
     async with app2.run_test(size=SIZE) as pilot:
@@ -212,7 +213,7 @@ async def test_save_writes_the_case_and_reopening_shows_the_same_findings(demo: 
         screen2 = app2.screen
         assert isinstance(screen2, CaseScreen) and not screen2.dirty
         assert _table_rows(screen2) == first_rows
-        assert screen2.assessment.to_json() == assess(saved).to_json()
+        assert screen2.assessment.to_json() == assess(saved, "baseline").to_json()
 
 
 async def test_save_as_duplicate_and_delete_draw(demo: Path) -> None:
@@ -239,8 +240,9 @@ async def test_save_as_duplicate_and_delete_draw(demo: Path) -> None:
         await pilot.pause()
         await pilot.press("tab", "enter")  # "Delete"
         await pilot.pause()
-        assert [d.label for d in dup.case.draws] == ["baseline"]
-        assert dup.index == 0 and _field(dup, "serum-sodium").input.value == "139"
+        # The copy opened on the baseline (the acidosis), so that is the draw deleted.
+        assert [d.label for d in dup.case.draws] == ["bicarbonate 3 h"]
+        assert dup.index == 0 and _field(dup, "serum-sodium").input.value == "141"
 
 
 async def test_new_case_is_saved_into_the_library_folder(tmp_path: Path) -> None:
@@ -265,6 +267,10 @@ async def test_switch_draws_and_add_a_loading_test_draw(demo: Path) -> None:
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
         screen = app.screen
+        # Opens on the baseline, the draw that shows the acidosis, not the later loading draw.
+        assert screen.index == 0 and screen.assessment.draw_label == "baseline"
+        await pilot.press("ctrl+pagedown")
+        await pilot.pause()
         assert screen.index == 1 and screen.assessment.draw_label == "bicarbonate 3 h"
         await pilot.press("ctrl+pageup")
         await pilot.pause()
@@ -372,7 +378,7 @@ async def test_quit_asks_when_unsaved_and_cancel_keeps_working(demo: Path) -> No
         await pilot.press("tab", "enter")  # "Discard changes"
         await pilot.pause()
         assert not isinstance(app.screen, CaseScreen)
-    assert load_case(demo).draws[-1].serum.sodium.canonical == 141  # file untouched (143 dropped)
+    assert load_case(demo).draws[0].serum.sodium.canonical == 139  # file untouched (143 dropped)
 
 
 async def test_quit_with_save_writes_then_exits(demo: Path) -> None:
@@ -386,7 +392,7 @@ async def test_quit_with_save_writes_then_exits(demo: Path) -> None:
         await pilot.press("enter")  # "Save" has the focus
         await pilot.pause()
     assert not app.is_running
-    assert load_case(demo).draws[-1].serum.chloride.canonical == 107
+    assert load_case(demo).draws[0].serum.chloride.canonical == 107
 
 
 async def test_help_on_every_screen_and_palette_lists_every_action(demo: Path) -> None:
@@ -438,7 +444,9 @@ async def test_pasted_lab_report_is_applied_to_the_current_draw(demo: Path) -> N
         assert app.screen is screen
         assert screen.draw.serum.sodium.canonical == 137
         assert screen.draw.serum.chloride.canonical == 101
-        assert screen.draw.serum.potassium.canonical == 3.2  # untouched by the paste
+        assert (
+            screen.draw.serum.potassium.canonical == 2.9
+        )  # the baseline's, untouched by the paste
         assert _field(screen, "serum-sodium").input.value == "137" and screen.dirty
 
 

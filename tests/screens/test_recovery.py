@@ -43,6 +43,9 @@ async def _leave_a_draft(demo: Path, sodium: str = "150") -> None:
         assert screen.journal_now()
 
 
+# The case opens on the draw that shows the acidosis (workup.draw_focus): the demo's baseline,
+# draws[0], where the edits below go; its sodium in the file is 139.
+
 # --------------------------------------------------------------------- drafts offered on start
 
 
@@ -51,8 +54,8 @@ async def test_unclean_shutdown_keeps_the_draft_and_releases_the_lock(demo: Path
     assert current_holder(demo) is None and not lock_path(demo).exists()
     [d] = pending_drafts()
     assert d.case_path == demo.resolve()
-    assert d.case is not None and d.case.draws[-1].serum.sodium.canonical == 150
-    assert load_case(demo).draws[-1].serum.sodium.canonical == 141  # the file is untouched
+    assert d.case is not None and d.case.draws[0].serum.sodium.canonical == 150
+    assert load_case(demo).draws[0].serum.sodium.canonical == 139  # the file is untouched
 
 
 async def test_restore_offer_on_the_library_opens_the_edits_unsaved(demo: Path) -> None:
@@ -69,13 +72,13 @@ async def test_restore_offer_on_the_library_opens_the_edits_unsaved(demo: Path) 
         screen = app.screen
         assert isinstance(screen, CaseScreen)
         assert screen.dirty and "UNSAVED" in str(screen.query_one("#titlebar").render())
-        assert screen.case.draws[-1].serum.sodium.canonical == 150
-        assert load_case(demo).draws[-1].serum.sodium.canonical == 141  # still unsaved
+        assert screen.case.draws[0].serum.sodium.canonical == 150
+        assert load_case(demo).draws[0].serum.sodium.canonical == 139  # still unsaved
         assert current_holder(demo) is not None  # the restored session holds the case
         await pilot.press("ctrl+s")
         await pilot.pause()
         assert not screen.dirty
-    assert load_case(demo).draws[-1].serum.sodium.canonical == 150
+    assert load_case(demo).draws[0].serum.sodium.canonical == 150
     assert list_drafts() == []  # saved, then closed cleanly: nothing left over
     # The save kept the file's own comment (round-trip save).
     assert demo.read_text().startswith("# Invented demo case")
@@ -96,7 +99,7 @@ async def test_later_then_opening_the_file_asks_again_and_discard_deletes(demo: 
         await pilot.pause()
         screen = app.screen
         assert isinstance(screen, CaseScreen) and not screen.dirty
-        assert screen.case.draws[-1].serum.sodium.canonical == 141
+        assert screen.case.draws[0].serum.sodium.canonical == 139
     assert list_drafts() == []
 
 
@@ -115,7 +118,7 @@ async def test_drafts_left_for_later_can_be_listed_again_from_the_palette(demo: 
         await pilot.press("r")
         await pilot.pause()
         assert isinstance(app.screen, CaseScreen) and app.screen.dirty
-        assert app.screen.case.draws[-1].serum.sodium.canonical == 150
+        assert app.screen.case.draws[0].serum.sodium.canonical == 150
 
 
 async def test_a_damaged_draft_is_listed_with_its_problem_and_never_crashes(demo: Path) -> None:
@@ -204,14 +207,14 @@ async def test_journal_timer_writes_only_when_something_changed(demo: Path) -> N
         assert not draft.exists()  # not on every keystroke: on the timer
         screen.journal_tick()
         first = read_draft(draft)
-        assert first.case is not None and first.case.draws[-1].serum.chloride.canonical == 112
+        assert first.case is not None and first.case.draws[0].serum.chloride.canonical == 112
         stamp = draft.stat().st_mtime_ns
         screen.journal_tick()  # unchanged since: not rewritten
         assert draft.stat().st_mtime_ns == stamp
         _field(screen, "serum-chloride").input.value = "113"
         await pilot.pause()
         screen.journal_tick()
-        assert read_draft(draft).case.draws[-1].serum.chloride.canonical == 113
+        assert read_draft(draft).case.draws[0].serum.chloride.canonical == 113
 
 
 async def test_a_draw_change_is_journaled_at_once(demo: Path) -> None:
@@ -240,7 +243,7 @@ async def test_close_after_discard_deletes_the_draft_and_the_lock(demo: Path) ->
         assert not isinstance(app.screen, CaseScreen)
         assert not draft_path(demo).exists()
         assert not lock_path(demo).exists() and current_holder(demo) is None
-    assert load_case(demo).draws[-1].serum.sodium.canonical == 141
+    assert load_case(demo).draws[0].serum.sodium.canonical == 139
 
 
 @pytest.mark.parametrize("answer", ["save", "discard"])
@@ -259,8 +262,8 @@ async def test_quit_after_save_or_discard_is_a_clean_close(demo: Path, answer: s
         await pilot.pause()
     assert not app.is_running
     assert list_drafts() == [] and current_holder(demo) is None
-    saved = load_case(demo).draws[-1].serum.sodium.canonical
-    assert saved == (146 if answer == "save" else 141)
+    saved = load_case(demo).draws[0].serum.sodium.canonical
+    assert saved == (146 if answer == "save" else 139)
 
 
 async def test_a_new_case_is_journaled_and_saved_under_its_label(tmp_path: Path) -> None:
@@ -319,7 +322,7 @@ async def test_conflict_dialog_shows_the_diff_and_cancel_writes_nothing(demo: Pa
         await pilot.pause()
         assert app.screen is screen and screen.dirty
     assert "hand edit" in demo.read_text()
-    assert load_case(demo).draws[-1].serum.sodium.canonical == 141
+    assert load_case(demo).draws[0].serum.sodium.canonical == 139
 
 
 async def test_conflict_overwrite_keeps_the_disk_version_as_a_backup(demo: Path) -> None:
@@ -329,7 +332,7 @@ async def test_conflict_overwrite_keeps_the_disk_version_as_a_backup(demo: Path)
         await pilot.click("#answer-overwrite")
         await pilot.pause()
         assert app.screen is screen and not screen.dirty
-    assert load_case(demo).draws[-1].serum.sodium.canonical == 144
+    assert load_case(demo).draws[0].serum.sodium.canonical == 144
     assert "hand edit" not in demo.read_text()
     assert "hand edit" in list_backups(demo)[0].path.read_text()
 
@@ -348,7 +351,7 @@ async def test_conflict_save_as_writes_a_new_file_and_leaves_the_other(demo: Pat
         assert app.screen is screen and not screen.dirty
         assert screen.path == (demo.parent / "distal-2.yaml").resolve()
         assert current_holder(demo) is None  # the old file's lock went with the switch
-    assert load_case(demo.parent / "distal-2.yaml").draws[-1].serum.sodium.canonical == 144
+    assert load_case(demo.parent / "distal-2.yaml").draws[0].serum.sodium.canonical == 144
     assert "hand edit" in demo.read_text()
 
 
@@ -387,7 +390,7 @@ async def test_a_case_held_elsewhere_opens_read_only_or_not_at_all(demo: Path) -
             assert isinstance(screen, CaseScreen) and screen.read_only
             assert "READ-ONLY" in str(screen.query_one("#titlebar").render())
             assert _field(screen, "serum-sodium").input.is_disabled  # no edits
-            assert screen.case.draws[-1].serum.sodium.canonical == 141  # the values show
+            assert screen.case.draws[0].serum.sodium.canonical == 139  # the values show
             before = demo.read_bytes()
             await pilot.press("ctrl+s", "ctrl+n")
             await pilot.pause()
@@ -461,7 +464,7 @@ async def test_backups_are_listed_and_one_is_put_back_after_asking(demo: Path) -
         await pilot.pause()
         reopened = app.screen
         assert isinstance(reopened, CaseScreen) and reopened is not screen
-        assert reopened.case.draws[-1].serum.sodium.canonical == 141
+        assert reopened.case.draws[0].serum.sodium.canonical == 139
         assert not reopened.dirty
     assert demo.read_bytes() == original
     # What it replaced (the 143 save) is itself kept.
