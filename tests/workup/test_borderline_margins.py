@@ -39,6 +39,7 @@ def test_urine_ph_margin(ph, borderline):
     [
         (5.0, False),  # 0.5 mmol/mmol: conservation, below 1.5 (Halperin, Afr J Nephrol 2017)
         (15.0, True),  # 1.5 mmol/mmol: on the cut-off (Halperin 2017; margin from memory)
+        (12.0, False),  # 1.2 mmol/mmol: below the margin (Halperin 2017; margin from memory)
         (40.0, False),  # 4.0 mmol/mmol: clear renal wasting (Halperin 2017)
     ],
 )

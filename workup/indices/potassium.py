@@ -151,8 +151,8 @@ def urine_potassium_creatinine_ratio(x: DrawInputs) -> Finding:
     edge = None
     if state == "hypo" and within(value, *UKCR_BORDERLINE):
         edge = (
-            f"borderline: {fmt(value)} mmol/mmol lies within {fmt(UKCR_BORDERLINE[0])}–"
-            f"{fmt(UKCR_BORDERLINE[1])} around the 1.5 cut-off (Halperin, Afr J Nephrol 2017; "
+            f"borderline: {fmt(value)} mmol/mmol lies within {fmt(UKCR_BORDERLINE[0], 2)}–"
+            f"{fmt(UKCR_BORDERLINE[1], 2)} around the 1.5 cut-off (Halperin, Afr J Nephrol 2017; "
             "margin from memory), so it does not settle renal against non-renal loss"
         )
     return finding(
@@ -165,6 +165,6 @@ def urine_potassium_creatinine_ratio(x: DrawInputs) -> Finding:
     )
 
 
-UKCR_BORDERLINE = (1.2, 1.8)
+UKCR_BORDERLINE = (1.35, 1.65)
 """Urine K/creatinine (mmol/mmol) margin around the 1.5 cut-off in hypokalemia read as
-borderline (cut-off Halperin, Afr J Nephrol 2017; the ±0.3 margin is from memory)."""
+borderline (cut-off Halperin, Afr J Nephrol 2017; the ±10 % margin is from memory, kept narrow)."""
