@@ -23,6 +23,10 @@ class Status(StrEnum):
     needs_input = "needs_input"
 
 
+BORDERLINE_SUFFIX = " (borderline)"
+"""Added to the interpretation of a value within its cut-off's imprecision, so every screen and
+note that prints the interpretation shows it."""
+
 # A word and a symbol for each status, so that status never depends on colour alone.
 STATUS_WORD = {
     Status.ok: "valid",
@@ -68,6 +72,9 @@ class Finding:
     """Upper bound of an expected range."""
     extra: dict[str, Any] = field(default_factory=dict)
     """Other numbers the index exposes (intermediate terms), keyed by name."""
+    borderline: bool = False
+    """True when the value sits within the published cut-off's imprecision: it is read as
+    borderline (the interpretation says so) and weighs less in the ranking."""
 
     @property
     def usable(self) -> bool:
@@ -86,6 +93,7 @@ class Finding:
             "source": self.source,
             "name": self.name,
             "interpretation": self.interpretation,
+            "borderline": self.borderline,
         }
         if self.low is not None or self.high is not None:
             out["low"], out["high"] = self.low, self.high

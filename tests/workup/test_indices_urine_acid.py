@@ -204,7 +204,7 @@ def test_ammonium_creatinine_needs_creatinine_or_ammonium_inputs():
 
 
 @pytest.mark.parametrize(
-    ("ph", "reading"), [(5.0, "acidified"), (5.5, "acidified"), (6.2, "not_acidified")]
+    ("ph", "reading"), [(5.0, "acidified"), (5.5, "acidified (borderline)"), (6.2, "not_acidified")]
 )
 def test_urine_ph_against_5_5_during_acidosis(ph, reading):
     # Berend et al., Kidney Dis 2017; Rodríguez Soriano, JASN 2002: > 5.5 in acidosis = defect.

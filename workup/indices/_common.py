@@ -10,7 +10,7 @@ import math
 from dataclasses import dataclass, field
 from typing import Any
 
-from workup.findings import Finding, Status, new_finding
+from workup.findings import BORDERLINE_SUFFIX, Finding, Status, new_finding
 from workup.frozen import builder
 from workup.inputs import DrawInputs
 
@@ -68,14 +68,28 @@ def finding(
     low: float | None = None,
     high: float | None = None,
     extra: dict[str, Any] | None = None,
+    borderline: str | None = None,
 ) -> Finding:
-    """Build a computed Finding from ``meta`` = (id, name, unit, formula, source)."""
+    """Build a computed Finding from ``meta`` = (id, name, unit, formula, source).
+
+    ``borderline``, when given, is a reason naming the margin and its source: the value is then
+    flagged borderline and its interpretation gains the suffix :data:`BORDERLINE_SUFFIX`.
+    """
     fid, name, unit, formula, source = meta
+    reasons = (*judge.invalid, *judge.cautions, *judge.notes)
+    if borderline is not None:
+        reasons = (*reasons, borderline)
+        if interpretation is not None:
+            interpretation += BORDERLINE_SUFFIX
     return new_finding(
-        fid, name, float(value), unit, judge.status,
-        (*judge.invalid, *judge.cautions, *judge.notes), (), formula, source, interpretation,
-        low, high, dict(extra) if extra else {},
+        fid, name, float(value), unit, judge.status, reasons, (), formula, source,
+        interpretation, low, high, dict(extra) if extra else {}, borderline is not None,
     )  # fmt: skip
+
+
+def within(value: float, low: float, high: float) -> bool:
+    """True when ``low <= value <= high`` (a borderline margin)."""
+    return low <= value <= high
 
 
 def ratio(num: float, den: float) -> float | None:

@@ -9,7 +9,7 @@ from __future__ import annotations
 
 from workup.context import Flag
 from workup.findings import Finding, missing
-from workup.indices._common import Judge, finding, fmt, plasma_osmolality, ratio
+from workup.indices._common import Judge, finding, fmt, plasma_osmolality, ratio, within
 from workup.inputs import DrawInputs
 
 TTKG_FORMULA = "TTKG = (urine K / plasma K) / (urine osm / plasma osm)"
@@ -148,6 +148,23 @@ def urine_potassium_creatinine_ratio(x: DrawInputs) -> Finding:
         )
     _drug_notes(x, j)
     j.note(f"{fmt(value)} mmol/mmol ({fmt(value * 8.84)} mmol/g creatinine)")
+    edge = None
+    if state == "hypo" and within(value, *UKCR_BORDERLINE):
+        edge = (
+            f"borderline: {fmt(value)} mmol/mmol lies within {fmt(UKCR_BORDERLINE[0], 2)}–"
+            f"{fmt(UKCR_BORDERLINE[1], 2)} around the 1.5 cut-off (Halperin, Afr J Nephrol 2017; "
+            "margin from memory), so it does not settle renal against non-renal loss"
+        )
     return finding(
-        (fid, name, unit, UKCR_FORMULA, UKCR_SOURCE), value, j, reading, extra={"kalemia": state}
+        (fid, name, unit, UKCR_FORMULA, UKCR_SOURCE),
+        value,
+        j,
+        reading,
+        extra={"kalemia": state},
+        borderline=edge,
     )
+
+
+UKCR_BORDERLINE = (1.35, 1.65)
+"""Urine K/creatinine (mmol/mmol) margin around the 1.5 cut-off in hypokalemia read as
+borderline (cut-off Halperin, Afr J Nephrol 2017; the ±10 % margin is from memory, kept narrow)."""

@@ -11,7 +11,15 @@ from typing import Any
 
 from workup.context import GI_LOSS, Flag
 from workup.findings import Finding, missing
-from workup.indices._common import Judge, finding, fmt, ketones_present, ratio, serum_picture
+from workup.indices._common import (
+    Judge,
+    finding,
+    fmt,
+    ketones_present,
+    ratio,
+    serum_picture,
+    within,
+)
 from workup.inputs import DrawInputs
 from workup.model import LoadingTest
 
@@ -105,9 +113,26 @@ def urine_ph(x: DrawInputs) -> Finding:
         + ("distal acidification works" if acidified else "urine not acidified")
     )
     j.note("measure with a pH meter on fresh urine; dipstick pH is coarse")
+    edge = None
+    if not test and within(uph, *UPH_BORDERLINE):
+        edge = (
+            f"borderline: urine pH {fmt(uph, 2)} lies within {fmt(UPH_BORDERLINE[0])}–"
+            f"{fmt(UPH_BORDERLINE[1])}, the spread of the published cut-offs (< 5.3–5.5 intact, "
+            "> 5.5 defect; Berend et al., Kidney Dis 2017; Rodríguez Soriano, JASN 2002), so it "
+            "weighs little either way"
+        )
     return finding(
-        (fid, name, "", formula, UPH_SOURCE), uph, j, "acidified" if acidified else "not_acidified"
+        (fid, name, "", formula, UPH_SOURCE),
+        uph,
+        j,
+        "acidified" if acidified else "not_acidified",
+        borderline=edge,
     )
+
+
+UPH_BORDERLINE = (5.3, 5.7)
+"""Steady-state urine pH margin read as borderline: the published cut-offs run from 5.3 to 5.5
+(Berend 2017; Rodríguez Soriano 2002) and meter imprecision adds about 0.1–0.2 (common practice)."""
 
 
 def _ammonium_looks_high(x: DrawInputs) -> bool:

@@ -14,7 +14,7 @@ from collections.abc import Iterable
 from dataclasses import dataclass, field
 
 from workup.context import Flag
-from workup.findings import DrawResult, Finding, Status
+from workup.findings import BORDERLINE_SUFFIX, DrawResult, Finding, Status
 from workup.formatting import fmt_number
 from workup.frozen import builder
 from workup.indices.kidney import egfr_id
@@ -23,6 +23,10 @@ from workup.settings import Settings
 
 STATUS_FACTOR = {Status.ok: 1.0, Status.caution: 0.5}
 """Reliability multiplier of a reading: a caution-status finding weighs half an ok one."""
+BORDERLINE_FACTOR = 0.0
+"""Further multiplier of a borderline reading (a value within its cut-off's imprecision): it is
+listed as evidence but adds no weight, because halving was not enough to stop one value on its
+threshold deciding between two causes that nothing else separates."""
 
 FURO_ACIDIFIED_BELOW = 5.3
 """Urine pH below this in any sample of a furosemide–fludrocortisone or short ammonium-chloride
@@ -132,10 +136,16 @@ def _offer(out: Readings, key: str, f: Finding | None, draw: str) -> None:
             why = f.reasons[0] if f.reasons else "a validity condition fails"
             out.set_aside[key] = f"{NAME.get(key, f.name)} ({draw}) not valid: {why}"
         return
+    # A borderline value keeps its side's answer word but adds no weight, so that no cause
+    # leads or falls on one value sitting on its threshold.
+    word = f.interpretation.removesuffix(BORDERLINE_SUFFIX)
+    factor = STATUS_FACTOR[f.status] * (BORDERLINE_FACTOR if f.borderline else 1.0)
+    flags = (", caution" if f.status is Status.caution else "") + (
+        ", borderline" if f.borderline else ""
+    )
     r = new_reading(
-        key, f.interpretation, f.value, draw, f.id, STATUS_FACTOR[f.status],
-        f"{NAME.get(key, f.name)} {_num(f)}{_unit(f)} "
-        f"({draw}{', caution' if f.status is Status.caution else ''})",
+        key, word, f.value, draw, f.id, factor,
+        f"{NAME.get(key, f.name)} {_num(f)}{_unit(f)} ({draw}{flags})",
     )  # fmt: skip
     if _better(r, out.by_key.get(key)):
         out.by_key[key] = r
