@@ -11,7 +11,7 @@ from __future__ import annotations
 import math
 
 from workup.analytes import CATALOGUE, Panel
-from workup.findings import Finding, Status
+from workup.findings import BORDERLINE_SUFFIX, Finding, Status
 from workup.formatting import fmt_number, fmt_value
 
 # How each index's interpretation word reads in a sentence (docs/indices.md fixes the words).
@@ -126,9 +126,18 @@ def reading(f: Finding, brief: bool = False) -> str | None:
         return None
     if f.id in ("egfr", "egfr_schwartz"):
         return f.interpretation if brief else f"KDIGO category {f.interpretation}"
-    if brief and f.interpretation in BRIEF_READING.get(f.id, {}):
-        return BRIEF_READING[f.id][f.interpretation]
-    return READING.get(f.id, {}).get(f.interpretation, f.interpretation.replace("_", " "))
+    word = plain_word(f)
+    # A borderline reading keeps its side's phrase and says it sits on the cut-off.
+    mark = " (borderline)" if f.borderline else ""
+    if brief and word in BRIEF_READING.get(f.id, {}):
+        return BRIEF_READING[f.id][word] + mark
+    return READING.get(f.id, {}).get(word, word.replace("_", " ")) + mark
+
+
+def plain_word(f: Finding) -> str:
+    """``f``'s interpretation word without the borderline suffix ("" when it has none)."""
+    word = f.interpretation or ""
+    return word.removesuffix(BORDERLINE_SUFFIX) if f.borderline else word
 
 
 def input_words(label: str) -> str:
@@ -232,6 +241,8 @@ def caution_suffix(
     """The parenthesis after a stated value: its reading and, for a caution, the caveat
     (its first clause only when ``brief``)."""
     inner = [words] if words else []
+    if f.borderline and "borderline" not in (words or ""):
+        inner.append("borderline: on the cut-off")
     if f.status is Status.caution:
         why = _gist(_once(caveat(f), seen), brief)
         inner.append(f"read with caution: {why}" if why else "read with caution")

@@ -61,7 +61,7 @@ def _k_clause(c: Context, id: str, label: str, kalemia: str | None) -> str | Non
     if not ph.stated(f):
         return c.clause(id, label)
     table = _K_READING_BRIEF if c.brief else _K_READING
-    words = table.get((kalemia or "", f.interpretation or ""))
+    words = table.get((kalemia or "", ph.plain_word(f)))
     if words is None:
         return c.clause(id, label)
     if c.brief:

@@ -53,7 +53,7 @@ def renal_acid_section(c: Context) -> Section:
         if id == "urine_ph" and not c.brief and not c.acidosis:
             # "appropriately" and "despite the acidosis" only hold during an acidosis.
             words = {"acidified": "acidified", "not_acidified": "not acidified"}.get(
-                f.interpretation or ""
+                ph.plain_word(f)
             )
         parts.append(c.clause(id, label or _ammonium_label(f), words=words))
     parts = [p for p in parts if p]
@@ -68,9 +68,9 @@ def _ammonium_summary(c: Context) -> list[str]:
     measured = False
     for id, table in ph.AMMONIUM_DIRECTION.items():
         f = c.finding(id)
-        if f is None or not ph.stated(f) or f.interpretation not in table:
+        if f is None or not ph.stated(f) or ph.plain_word(f) not in table:
             continue
-        directions[id] = table[f.interpretation]
+        directions[id] = table[ph.plain_word(f)]
         if id == "urine_ammonium_estimate" and f.extra.get("measured"):
             measured = True
     found = set(directions.values())
