@@ -222,6 +222,19 @@ class DrawPane(FormPane):
         ]
         return values + times
 
+    def refused_reasons(self) -> list[str]:
+        """The refused rows of the shown draw, each with the core's reason (for F1 help)."""
+        out = [
+            f"{analyte(panel, key).name}: {reading.problem}"
+            for (panel, key), reading in self.readings.items()
+            if reading.problem
+        ]
+        if self.index in self.pending_taken:
+            out.append(
+                f"taken {self.pending_taken[self.index]!r}: {TAKEN_REFUSED.removeprefix('x refused: ')}"
+            )
+        return out
+
     def forget_draw(self, gone: int) -> None:
         """Drop the refused text of draw ``gone``, just deleted; later draws move up one."""
         self.pending = {

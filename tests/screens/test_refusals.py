@@ -11,7 +11,9 @@ from textual.widgets import Input, Static
 
 from screens.case_screen import CaseScreen
 from screens.dialogs import ChoiceScreen
+from screens.help_screen import HelpScreen
 from tests.screens.support import SIZE
+from tests.screens.support import field as _field
 from tests.screens.support import make_app as _app
 from workup.caseio import load_case
 
@@ -39,3 +41,33 @@ async def test_refused_draw_time_is_shown_and_listed_before_saving(demo: Path) -
         await pilot.pause()
         assert app.screen is screen
         assert "refused" in str(screen.query_one("#st-taken", Static).render())
+
+
+async def test_refused_values_say_why_on_the_help_line_and_in_f1(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        # Each typo must be refused with the core's reason, not only "refused".
+        typos = [
+            ("serum-sodium", "1380", "not a possible sodium"),
+            ("serum-potassium", "abc", "write a number"),
+            ("serum-bicarbonate", "161.0", "not a possible"),
+        ]
+        for fid, text, reason in typos:
+            row = _field(screen, fid)
+            row.input.focus()
+            row.input.value = text
+            await pilot.pause()
+            assert row.state_kind == "-refused"
+            hint = str(screen.query_one("#field-help", Static).render())
+            assert reason in hint
+        await pilot.press("f1")
+        await pilot.pause()
+        assert isinstance(app.screen, HelpScreen)
+        page = str(app.screen.help)
+        assert "Refused on draw" in page
+        for fid, _text, reason in typos:
+            name = _field(screen, fid).analyte.name
+            assert any(name in line and reason in line for line in page.splitlines())
