@@ -76,6 +76,8 @@ class DrawPane(FormPane):
         """The core's reading of each field of the shown draw."""
         self.fields: dict[tuple[Panel, str], ValueField] = {}
         """The value rows by (panel, key)."""
+        self.units_origin = "the case's unit system, F3"
+        """Where the case's unit system came from, said on the help line of an empty row."""
         self.focused_field: ValueField | None = None
         """The value row holding the focus (None: the focus is elsewhere on the screen)."""
 
@@ -362,4 +364,7 @@ class DrawPane(FormPane):
             if field is not None
             else FieldReading(None)
         )
-        self.query_one("#field-help", Static).update(field_help(field, reading))
+        units = None
+        if field is not None and field.analyte.ambiguous and self.case.units is not None:
+            units = f"units: {self.case.units.value} ({self.units_origin}; Ctrl+T switches)"
+        self.query_one("#field-help", Static).update(field_help(field, reading, units))

@@ -16,6 +16,7 @@ from tests.screens.support import SIZE
 from tests.screens.support import field as _field
 from tests.screens.support import make_app as _app
 from workup.caseio import load_case
+from workup.userconfig import settings_file
 
 
 async def test_refused_draw_time_is_shown_and_listed_before_saving(demo: Path) -> None:
@@ -71,3 +72,38 @@ async def test_refused_values_say_why_on_the_help_line_and_in_f1(demo: Path) -> 
         for fid, _text, reason in typos:
             name = _field(screen, fid).analyte.name
             assert any(name in line and reason in line for line in page.splitlines())
+
+
+async def test_new_case_takes_its_units_from_the_user_settings(tmp_path: Path) -> None:
+    app = _app(tmp_path)  # no settings file: conventional units
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        creat = _field(screen, "serum-creatinine")
+        assert creat.unit == "mg/dL"  # ready to type into, not "unit?"
+        for fid in ("serum-urea-nitrogen", "serum-glucose", "serum-albumin"):
+            assert _field(screen, fid).unit is not None
+        creat.input.focus()
+        await pilot.pause()
+        hint = str(screen.query_one("#field-help", Static).render())
+        assert "units: conventional (from your settings; Ctrl+T switches)" in hint
+        creat.input.value = "0.8"
+        await pilot.pause()
+        m = screen.draw.serum.creatinine
+        # 0.8 mg/dL x 88.4 = 70.7 umol/L: creatinine 113.12 g/mol (IUPAC standard atomic weights).
+        assert m is not None and abs(m.canonical - 70.7) < 0.05
+
+
+async def test_new_case_in_si_units_when_the_settings_say_so(tmp_path: Path) -> None:
+    settings_file().parent.mkdir(parents=True, exist_ok=True)
+    settings_file().write_text("unit_system: si\nanion_gap_upper: 12\n", encoding="utf-8")
+    app = _app(tmp_path)
+    async with app.run_test(size=SIZE) as pilot:
+        app.new_case()
+        await pilot.pause()
+        screen = app.screen
+        assert isinstance(screen, CaseScreen)
+        assert _field(screen, "serum-creatinine").unit == "umol/L"
+        assert app.user_overrides() == {"anion_gap_upper": 12.0}  # numbers still read
