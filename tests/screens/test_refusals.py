@@ -55,6 +55,7 @@ async def test_refused_values_say_why_on_the_help_line_and_in_f1(demo: Path) -> 
             ("serum-sodium", "1380", "not a possible sodium"),
             ("serum-potassium", "abc", "write a number"),
             ("serum-bicarbonate", "161.0", "not a possible"),
+            ("serum-chloride", "104 mEq/x", "unknown unit"),
         ]
         for fid, text, reason in typos:
             row = _field(screen, fid)
