@@ -205,9 +205,20 @@ class CaseSessionsMixin(_AppBase):
 
     def new_case(self) -> None:
         """Start a new, empty case (saved into the library folder on first save)."""
+        from workup.analytes import UnitSystem
         from workup.model import Case
+        from workup.settings import load_user_unit_system
 
-        self.push_screen(self._case_screen(Case(label="New case"), None, dirty=True))
+        try:
+            chosen = load_user_unit_system()
+        except (ValueError, OSError) as exc:
+            chosen = "none"  # a bad file must not pick units silently: every field asks
+            self.notify(f"unit_system ignored: {exc}", severity="warning", timeout=10)
+        units = None if chosen == "none" else UnitSystem(chosen)
+        screen = self._case_screen(Case(label="New case", units=units), None, dirty=True)
+        if units is not None:
+            screen.draw_pane.units_origin = "from your settings"
+        self.push_screen(screen)
 
     def duplicate_case(self, screen: CaseScreen) -> None:
         """Open a copy of ``screen``'s case as a new, unsaved case."""

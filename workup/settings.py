@@ -4,6 +4,7 @@ Reference intervals belong to the user's laboratory; the defaults below are star
 with its source. Precedence: a case's ``settings:`` over the user's settings file over the
 defaults. The user's file is ``settings.yaml`` in the platformdirs user config folder
 (``~/.config/workup/settings.yaml`` on Linux), a flat mapping of the names below.
+It may also hold ``unit_system`` (conventional, si or none): the units a new case starts with.
 """
 
 from __future__ import annotations
@@ -195,6 +196,12 @@ class Settings(BaseModel):
 
 DEFAULTS = Settings()
 
+USER_CHOICES = ("unit_system",)
+"""Names in the user's settings file that are choices, not numbers; read by their own loader."""
+
+UNIT_SYSTEMS = ("conventional", "si", "none")
+"""Values of ``unit_system``: the unit system of a new case ("none": ask on every field)."""
+
 
 def describe(name: str) -> str:
     """The documentation of setting ``name`` (its source) as one line."""
@@ -220,6 +227,7 @@ def load_user_overrides(path: Path | None = None) -> dict[str, float]:
     data = yaml.safe_load(path.read_text(encoding="utf-8")) or {}
     if not isinstance(data, dict):
         raise ValueError(f"{path}: expected a mapping of setting names to numbers")
+    data = {k: v for k, v in data.items() if k not in USER_CHOICES}
     try:
         Settings(**data)
     except ValidationError as exc:
@@ -234,3 +242,22 @@ def resolve(*overrides: dict[str, Any]) -> Settings:
     for o in overrides:
         merged.update(o)
     return Settings(**merged) if merged else DEFAULTS
+
+
+def load_user_unit_system(path: Path | None = None) -> str:
+    """The unit system a new case starts with: the file's ``unit_system``, else "conventional".
+
+    One of UNIT_SYSTEMS. Raises ValueError when the file or the value is bad.
+    """
+    import yaml
+
+    path = path or user_settings_path()
+    if not path.exists():
+        return "conventional"
+    data = yaml.safe_load(path.read_text(encoding="utf-8")) or {}
+    if not isinstance(data, dict):
+        raise ValueError(f"{path}: expected a mapping of setting names to values")
+    value = str(data.get("unit_system", "conventional")).strip().lower()
+    if value not in UNIT_SYSTEMS:
+        raise ValueError(f"{path}: unit_system: expected one of {', '.join(UNIT_SYSTEMS)}")
+    return value

@@ -55,6 +55,10 @@ def draw_options(draws: list[Draw]) -> list[tuple[str, int]]:
     return out
 
 
+TAKEN_REFUSED = "x refused: not a date and time; write e.g. 2026-11-30T08:15"
+"""The state line of a draw time that does not read as an ISO date and time."""
+
+
 class DrawPane(FormPane):
     """The draw's label, time, loading test and gas sample, then one row per analyte."""
 
@@ -66,10 +70,14 @@ class DrawPane(FormPane):
         """The position of the draw shown (set by ``show_draw``)."""
         self.pending: dict[tuple[int, Panel, str], str] = {}
         """Refused text by (draw index, panel, key): shown again, never saved silently."""
+        self.pending_taken: dict[int, str] = {}
+        """Refused text of each draw's time, by draw index: listed at save like the values."""
         self.readings: dict[tuple[Panel, str], FieldReading] = {}
         """The core's reading of each field of the shown draw."""
         self.fields: dict[tuple[Panel, str], ValueField] = {}
         """The value rows by (panel, key)."""
+        self.units_origin = "the case's unit system, F3"
+        """Where the case's unit system came from, said on the help line of an empty row."""
         self.focused_field: ValueField | None = None
         """The value row holding the focus (None: the focus is elsewhere on the screen)."""
 
@@ -124,12 +132,14 @@ class DrawPane(FormPane):
         )
         self.problems.clear()
         self.set_input("#meta-label", d.label)
-        self.set_input("#meta-taken", d.taken.isoformat(timespec="minutes") if d.taken else "")
+        taken = self.pending_taken.get(self.index)
+        shown_taken = d.taken.isoformat(timespec="minutes") if d.taken else ""
+        self.set_input("#meta-taken", shown_taken if taken is None else taken)
         self.set_select("#meta-during", d.during.value if d.during else NO_TEST)
         self.set_select("#meta-sample", d.blood_gas.sample.value)
         self.set_input("#meta-notes", d.notes or "")
-        for st in ("st-label", "st-taken"):
-            self.query_one(f"#{st}", Static).update("")
+        self.show_problem("st-label", None)
+        self.show_problem("st-taken", None if taken is None else TAKEN_REFUSED)
         for (panel, key), field in self.fields.items():
             m = getattr(d.panel(panel), key)
             if m is not None:
@@ -204,10 +214,28 @@ class DrawPane(FormPane):
 
     def refused_summary(self) -> list[str]:
         """Rows holding refused text, in words, over every draw."""
-        return [
+        values = [
             f"{self.case.draws[i].label}: {analyte(panel, key).name} {text!r}"
             for (i, panel, key), text in self.pending.items()
         ]
+        times = [
+            f"{self.case.draws[i].label}: taken {text!r} (not a date and time)"
+            for i, text in sorted(self.pending_taken.items())
+        ]
+        return values + times
+
+    def refused_reasons(self) -> list[str]:
+        """The refused rows of the shown draw, each with the core's reason (for F1 help)."""
+        out = [
+            f"{analyte(panel, key).name}: {reading.problem}"
+            for (panel, key), reading in self.readings.items()
+            if reading.problem
+        ]
+        if self.index in self.pending_taken:
+            out.append(
+                f"taken {self.pending_taken[self.index]!r}: {TAKEN_REFUSED.removeprefix('x refused: ')}"
+            )
+        return out
 
     def forget_draw(self, gone: int) -> None:
         """Drop the refused text of draw ``gone``, just deleted; later draws move up one."""
@@ -215,6 +243,9 @@ class DrawPane(FormPane):
             (i if i < gone else i - 1, p, k): t
             for (i, p, k), t in self.pending.items()
             if i != gone
+        }
+        self.pending_taken = {
+            i if i < gone else i - 1: t for i, t in self.pending_taken.items() if i != gone
         }
 
     # ----------------------------------------------------------------- editing
@@ -270,7 +301,12 @@ class DrawPane(FormPane):
         try:
             taken = datetime.fromisoformat(text) if text else None
         except ValueError:
-            taken, problem = self.draw.taken, "x refused: write e.g. 2026-11-30T08:15"
+            taken, problem = self.draw.taken, TAKEN_REFUSED
+        # The refused text is kept so that saving lists it instead of dropping it unseen.
+        if problem is None:
+            self.pending_taken.pop(self.index, None)
+        else:
+            self.pending_taken[self.index] = text
         if problem is None and taken != self.draw.taken:
             self.draw.taken = taken
             self._refresh_draw_options()
@@ -328,4 +364,7 @@ class DrawPane(FormPane):
             if field is not None
             else FieldReading(None)
         )
-        self.query_one("#field-help", Static).update(field_help(field, reading))
+        units = None
+        if field is not None and field.analyte.ambiguous and self.case.units is not None:
+            units = f"units: {self.case.units.value} ({self.units_origin}; Ctrl+T switches)"
+        self.query_one("#field-help", Static).update(field_help(field, reading, units))

@@ -12,8 +12,13 @@ FORM_KEYS = "Tab/Enter: next field  Shift+Tab: back  Ctrl+N: new draw  F4: findi
 """The help line while no value field has the focus."""
 
 
-def field_help(field: ValueField | None, reading: FieldReading) -> str | Text:
-    """The help line for ``field`` (None: no value field focused) holding ``reading``."""
+def field_help(
+    field: ValueField | None, reading: FieldReading, unit_note: str | None = None
+) -> str | Text:
+    """The help line for ``field`` (None: no value field focused) holding ``reading``.
+
+    ``unit_note`` says where the row's unit came from; it is shown while the row is empty.
+    """
     if field is None:
         return FORM_KEYS
     a = field.analyte
@@ -22,8 +27,8 @@ def field_help(field: ValueField | None, reading: FieldReading) -> str | Text:
     out.append(f"{a.name} ({field.panel.value.replace('_', ' ')})", style="bold")
     shown = field.unit if field.unit is not None else "no unit chosen"
     out.append(f" in {shown or 'no unit'}; units {units}")
-    if len(unit_choices(a)) > 1:
-        out.append(" (Ctrl+T switches)")
+    if len(unit_choices(a)) > 1 and not unit_note:
+        out.append(" (Ctrl+T switches)")  # else said on the second line, keeping 80 columns
     if a.words:
         out.append("; grades: " + ", ".join(a.words))
     if reading.problem and field.unit is None and "ambiguous" in reading.problem:
@@ -39,4 +44,6 @@ def field_help(field: ValueField | None, reading: FieldReading) -> str | Text:
         m = reading.measurement
         canon = f"{m.canonical:g} {a.canonical}".strip()
         out.append(f"\n+ read as {canon}")
+    elif unit_note:
+        out.append("\n" + unit_note)
     return out

@@ -63,6 +63,11 @@ HELP_KEYS = [
 def help_context(screen: CaseScreen) -> tuple[str, list[tuple[str, str]], list[str], str]:
     """What the help screen shows for ``screen``: title, keys, its cautions, extra text."""
     extra = "Davenport bands (F6):\n" + band_rules_text()
+    refused = screen.draw_pane.refused_reasons()
+    if refused:
+        # Listed first: a refused value is what the fellow most needs explained right now.
+        lines = "\n".join(f"  x {r}" for r in refused)
+        extra = f"Refused on draw {screen.draw.label!r} (not part of the case):\n{lines}\n\n{extra}"
     privacy = screen.session.privacy if screen.session is not None else []
     if privacy:
         extra += "\n\nPrivacy: other users of this machine can reach this case\n"

@@ -27,6 +27,7 @@ from workup.context import Flag
 from workup.findings import STATUS_MARK, STATUS_WORD
 from workup.formatting import fmt_value
 from workup.model import LoadingTest
+from workup.userconfig import settings_file
 
 
 def _table_rows(screen: CaseScreen) -> list[list[str]]:
@@ -161,6 +162,9 @@ async def test_pasting_a_block_into_one_field_leaves_the_others_alone(demo: Path
 async def test_unit_switch_converts_and_an_ambiguous_bare_number_is_refused(
     tmp_path: Path,
 ) -> None:
+    # A user who sets no unit system for new cases: ambiguous rows start without a unit.
+    settings_file().parent.mkdir(parents=True, exist_ok=True)
+    settings_file().write_text("unit_system: none\n", encoding="utf-8")
     app = _app(tmp_path)
     async with app.run_test(size=SIZE) as pilot:
         app.new_case()
