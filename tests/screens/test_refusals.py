@@ -20,12 +20,12 @@ from workup.userconfig import settings_file
 
 
 async def test_refused_draw_time_is_shown_and_listed_before_saving(demo: Path) -> None:
-    before = load_case(demo).draws[-1].taken
     app = _app(demo.parent, demo)
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
         screen = app.screen
         assert isinstance(screen, CaseScreen)
+        before = load_case(demo).draws[screen.index].taken  # the draw the case opened on
         taken = screen.query_one("#meta-taken", Input)
         taken.focus()
         taken.value = "138"  # a sodium typed into the wrong row
