@@ -143,10 +143,17 @@ def plan_case(index: int, seed: int = SEED) -> GenCase:
             kept[p] = {k: _vary(p, k, v, rng) for k, v in values[p].items()
                        if j == 0 or rng.random() < 0.85}  # fmt: skip
         loading = during if j < len(tdraws) else None
+        label = labels[j]
+        if loading:
+            # A loading-test draw is named for its test, so it never reads as "admission"; a
+            # template with several samples of one test must not repeat an hour (labels differ).
+            hour = rng.randint(1, 6)
+            while f"{loading.split('_')[0]} {hour} h" in {d.label for d in draws}:
+                hour += 1
+            label = f"{loading.split('_')[0]} {hour} h"
         draws.append(
             GenDraw(
-                # A loading-test draw is named for its test, so it never reads as "admission".
-                label=f"{loading.split('_')[0]} {rng.randint(1, 6)} h" if loading else labels[j],
+                label=label,
                 taken=when,
                 during=loading,
                 values={p: v for p, v in kept.items() if v},
