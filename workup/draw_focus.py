@@ -49,8 +49,33 @@ class DrawFocus:
             return "no draws yet"
         text = f"findings of draw '{self.label}' ({self.reason})"
         if self.others:
-            text += "; " + "; ".join(f"'{lab}' {role}" for lab, role in self.others)
+            text += "; " + grouped_roles(self.others, "'")
         return text
+
+
+# A role said of several draws at once, so three loading samples take one clause, not three.
+_PLURAL = {
+    "is a loading test, read by the causes": "are loading tests, read by the causes",
+    "also shows an acidosis and is read by the causes": (
+        "also show an acidosis and are read by the causes"
+    ),
+    "is read by the causes": "are read by the causes",
+}
+
+
+def grouped_roles(others: list[tuple[str, str]], quote: str) -> str:
+    """The other draws' roles in one clause per role, e.g. "'a' and 'b' are loading tests, …"."""
+    by_role: dict[str, list[str]] = {}
+    for label, role in others:
+        by_role.setdefault(role, []).append(f"{quote}{label}{quote}")
+    clauses = []
+    for role, labels in by_role.items():
+        if len(labels) == 1:
+            clauses.append(f"{labels[0]} {role}")
+        else:
+            names = ", ".join(labels[:-1]) + " and " + labels[-1]
+            clauses.append(f"{names} {_PLURAL.get(role, role)}")
+    return "; ".join(clauses)
 
 
 def shows_acidosis(result: DrawResult) -> bool:

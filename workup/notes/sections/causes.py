@@ -23,6 +23,9 @@ def causes_section(c: Context) -> Section:
     for note in c.a.ranking_notes:
         if c.brief and note.startswith("Ammonium:"):
             continue  # the daily note's renal line already says which ammonium reading counts
+        if c.brief and note.startswith("No draw shows"):
+            # The daily note keeps the conclusion; which draw lacks an acidosis is in the full note.
+            note = note.partition(": ")[0] + "."
         s.sentences.append(ph.sentence(ph.tidy(note)))
         _head, sep, rest = ph.tidy(note).partition(": ")
         if sep:

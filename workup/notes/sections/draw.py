@@ -7,7 +7,7 @@ never takes a loading-test draw's "no disorder" for the patient's state (see
 
 from __future__ import annotations
 
-from workup.draw_focus import focus_draw
+from workup.draw_focus import focus_draw, grouped_roles
 from workup.notes.sections.acid_base import acid_base_section
 from workup.notes.sections.context import Context, Section
 from workup.notes.sections.gaps import gaps_section
@@ -32,7 +32,7 @@ def draw_section(c: Context) -> Section:
         others = [(focus.label, f"shows {focus.reason}"), *others]
         others = [o for o in others if o[0] != draw.label]
     if others:
-        text += "; " + "; ".join(f'"{lab}" {role}' for lab, role in others)
+        text += "; " + grouped_roles(others, '"')
     s.sentences.append(text + ".")
     return s
 
