@@ -23,8 +23,8 @@ def causes_section(c: Context) -> Section:
     for note in c.a.ranking_notes:
         if c.brief and note.startswith("Ammonium:"):
             continue  # the daily note's renal line already says which ammonium reading counts
-        if c.brief and note.startswith("No draw shows"):
-            # The daily note keeps the conclusion; which draw lacks an acidosis is in the full note.
+        if c.brief and note.startswith("No draw shows") and "is judged" in note:
+            # The daily note keeps the conclusion; each test draw's reason is in the full note.
             note = note.partition(": ")[0] + "."
         s.sentences.append(ph.sentence(ph.tidy(note)))
         _head, sep, rest = ph.tidy(note).partition(": ")
