@@ -16,7 +16,6 @@ from screens.app_notices import (
     case_file_problems,
     pending_edits_question,
     read_only_question,
-    session_notices,
 )
 from screens.dialogs import ChoiceScreen
 from screens.messages import NewCase, OpenCase
@@ -95,13 +94,8 @@ class CaseSessionsMixin(_AppBase):
         except OSError as exc:
             self.notify(f"{path}: {exc}", title="Cannot open the case", severity="error")
             return False
-        for notice in session_notices(session):
-            self.notify(
-                notice.message,
-                title=notice.title,
-                severity=notice.severity,
-                timeout=notice.timeout,
-            )
+        # The stale-lock and privacy warnings go on the case screen's banner line (see
+        # screens.app_notices.banner_text), not in toasts that would cover the findings.
         if session.pending_draft is not None:
             self._offer_pending(session)
         else:

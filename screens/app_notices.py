@@ -56,6 +56,20 @@ def session_notices(session: CaseSession) -> list[Notice]:
     return notices
 
 
+def banner_text(session: CaseSession) -> str:
+    """One line for the case screen's banner: each warning in a few words with its fix, F1 for
+    the full text ("" when there is nothing to say). A banner, not a toast: nothing may cover the
+    findings while the fellow reads them."""
+    parts = []
+    if session.lock is not None and session.lock.note:
+        parts.append("stale lock taken over (a session ended without closing)")
+    if session.privacy:
+        more = len(session.privacy) - 1
+        extra = f" (+{more} more)" if more else ""
+        parts.append(f"others can read this case: {session.privacy[0].command}{extra}")
+    return ("! " + "; ".join(parts) + "  F1: details") if parts else ""
+
+
 def read_only_question(name: str, exc: Exception) -> str:
     """The question asked when the case file ``name`` is held by another session (``exc``)."""
     holder = getattr(exc, "holder", None)

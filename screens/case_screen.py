@@ -110,6 +110,7 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
 
     def compose(self) -> ComposeResult:
         yield Static("", id="titlebar")
+        yield Static("", id="notice-line")
         with TabbedContent(id="tabs", initial=self.start_tab):
             yield from self.panes.values()
         yield Static("", id="caution-line")
@@ -121,6 +122,7 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
             w.cursor_position = 0
         self._show_draw()
         self._recompute()
+        self._show_notices()
         if self.read_only:
             # A read-only session does not journal, so nothing may be edited in it.
             self.draw_pane.make_read_only()
@@ -132,6 +134,14 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
             if self.dirty and self.session is not None:
                 self.journal_now()  # restored edits: make sure this session's draft holds them
         self.action_tab(self.start_tab)
+
+    def _show_notices(self) -> None:
+        from screens.app_notices import banner_text
+
+        text = banner_text(self.session) if self.session is not None else ""
+        line = self.query_one("#notice-line", Static)
+        line.update(text)
+        line.display = bool(text)
 
     def on_unmount(self) -> None:
         # Leaving without the fellow choosing to save or discard (the app shut down around

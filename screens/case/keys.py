@@ -68,6 +68,9 @@ def help_context(screen: CaseScreen) -> tuple[str, list[tuple[str, str]], list[s
         # Listed first: a refused value is what the fellow most needs explained right now.
         lines = "\n".join(f"  x {r}" for r in refused)
         extra = f"Refused on draw {screen.draw.label!r} (not part of the case):\n{lines}\n\n{extra}"
+    lock = screen.session.lock if screen.session is not None else None
+    if lock is not None and lock.note:
+        extra += f"\n\nStale lock taken over: {lock.note}"
     privacy = screen.session.privacy if screen.session is not None else []
     if privacy:
         extra += "\n\nPrivacy: other users of this machine can reach this case\n"
