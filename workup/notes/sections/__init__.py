@@ -25,10 +25,8 @@ from workup.notes.sections.kidney import kidney_section
 from workup.notes.sections.potassium import potassium_section
 from workup.notes.sections.renal_acid import renal_acid_section
 
-BUILDERS = (
-    values_section,
-    acid_base_section,
-    gaps_section,
+# Both notes read the same from the renal acid section on; only their openings differ.
+_FROM_RENAL_ACID = (
     renal_acid_section,
     potassium_section,
     kidney_section,
@@ -37,19 +35,11 @@ BUILDERS = (
     caveats_section,
     caution_section,
 )
+
+BUILDERS = (values_section, acid_base_section, gaps_section, *_FROM_RENAL_ACID)
 """The section builders in the order the note reads them; each lives in the module of its name."""
 
-BRIEF_BUILDERS = (
-    draw_section,
-    gas_and_gap_section,
-    renal_acid_section,
-    potassium_section,
-    kidney_section,
-    causes_section,
-    next_tests_section,
-    caveats_section,
-    caution_section,
-)
+BRIEF_BUILDERS = (draw_section, gas_and_gap_section, *_FROM_RENAL_ACID)
 """The short note's order: the draw instead of the entered values (those stay in the full note)."""
 
 
