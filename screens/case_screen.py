@@ -42,6 +42,7 @@ from screens.case.keys import TABS
 from screens.case.messages import DrawChosen, UnitSystemChanged, WorkingCopyEdited
 from screens.case.pane_base import WorkspacePane
 from screens.case.side_screens import SideScreens
+from screens.case.titlebar import title_text
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
 from workup.draw_focus import draw_header, opening_index
@@ -165,13 +166,16 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         self._update_title()
 
     def _update_title(self) -> None:
-        where = self.path.name if self.path else "not saved yet"
-        mark = "* UNSAVED" if self.dirty else "saved"
-        if self.read_only:
-            mark = "READ-ONLY (open elsewhere)"
         self.query_one("#titlebar", Static).update(
-            f"{mark} | {self.case.label} | draw {self.index + 1}/{len(self.case.draws)}: "
-            f"{self.draw.label} | {where}"
+            title_text(
+                dirty=self.dirty,
+                read_only=self.read_only,
+                label=self.case.label,
+                draw_number=self.index + 1,
+                draw_count=len(self.case.draws),
+                draw_label=self.draw.label,
+                path=self.path,
+            )
         )
 
     def _show_draw(self) -> None:
