@@ -13,6 +13,7 @@ journaled) / ``S N`` (edit N saved); after the child ends the zygote writes ``ex
 from __future__ import annotations
 
 import os
+import signal
 import sys
 from pathlib import Path
 
@@ -50,6 +51,9 @@ def _say(text: str) -> None:
 
 def child(case_path: Path, original: Path, save_every: int, offset: int) -> None:
     """Open the case and edit it forever (until killed)."""
+    # A shell started under nohup passes SIGHUP on ignored; the test needs a hang-up to kill the
+    # session as it would an editor whose terminal went away.
+    signal.signal(signal.SIGHUP, signal.SIG_DFL)
     _say(f"start {os.getpid()}")
     base = load_case(original)
     session = CaseSession.open(case_path)
