@@ -15,8 +15,10 @@ The subset: a top-level block mapping at column 0; nested block mappings by inde
 sequences (``- item``, ``- key: value`` with further keys lined up under the first); one-level flow
 mappings ``{k: v}`` and flow sequences ``[a, b]`` as values, possibly continued on following
 lines indented deeper than their key; full-line and trailing `` #`` comments; ``key:`` with
-nothing after it; single-line plain, double-quoted and single-quoted scalars. Keys are plain
-scalars that resolve to ``str``. Declined (``None``): tags, anchors, aliases, block scalars,
+nothing after it; single-line plain, double-quoted and single-quoted scalars; literal block
+scalars with clip or strip chomping (``key: |``, ``key: |-``; workup.quickread_literal). Keys are
+plain scalars that resolve to ``str``. Declined (``None``): tags, anchors, aliases, folded blocks
+and literal blocks with any other header,
 document markers, directives, complex keys, tabs, CR or any non-printable character,
 multi-line scalars, nested flow collections, comments or blank lines inside a flow collection,
 trailing commas, duplicate keys at any level, non-string keys, and anything that fits no rule.
@@ -30,6 +32,7 @@ from __future__ import annotations
 import re
 from typing import Any
 
+from workup.quickread_literal import _is_dash, _Literal, literals
 from workup.quickread_scalars import (
     _BLOCK_PLAIN,
     _FLOW_PLAIN,
@@ -91,6 +94,8 @@ def _parse(text: str) -> Any | None:
         else:
             add_ind(0)
             add_con(None)
+    if "|" in text:
+        literals(lines, ind, con)
     n = len(con)
     i = 0
     while i < n and con[i] is None:
@@ -109,10 +114,6 @@ def _skip(con: list[str | None], i: int, n: int) -> int:
     return i
 
 
-def _is_dash(c: str) -> bool:
-    return c[0] == "-" and (len(c) == 1 or c[1] == " ")
-
-
 def _block_map(
     ind: list[int], con: list[str | None], i: int, n: int, indent: int
 ) -> tuple[dict[str, Any], int]:
@@ -128,7 +129,11 @@ def _block_map(
         c = con[i]
         entry = lines_memo.get(c)  # type: ignore[arg-type]
         if entry is None:
-            entry = _map_line(c)  # type: ignore[arg-type]
+            # A literal header is never in the memo: _map_line declines "k: |" and "k: |-".
+            if type(c) is _Literal:
+                entry = (_SCALAR, _key(c.partition(": ")[0]), c.value)
+            else:
+                entry = _map_line(c)  # type: ignore[arg-type]
         kind, key, payload = entry
         if key in out:
             raise _Decline
@@ -183,7 +188,7 @@ def _block_seq(
             if ": " in t or t.endswith(":"):
                 # "- key: value": the item is a mapping whose keys line up with this first one.
                 ind[i] = col
-                con[i] = s
+                con[i] = c.rebase(s) if type(c) is _Literal else s
                 value, i = _block_map(ind, con, i, n, col)
             else:
                 value = _plain(t, _BLOCK_PLAIN)
@@ -277,8 +282,8 @@ def _next_flow_line(
     if i >= n:
         raise _Decline
     c = con[i]
-    if c is None or ind[i] <= indent:
-        raise _Decline  # a blank or comment line inside, or a line not indented deeper
+    if c is None or ind[i] <= indent or type(c) is _Literal:
+        raise _Decline  # a blank or comment line inside, a line not indented deeper, a block
     return s + "\n" + c, i + 1
 
 

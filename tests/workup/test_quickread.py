@@ -22,12 +22,15 @@ from hypothesis import HealthCheck, given, settings
 from hypothesis import strategies as st
 
 from bench.library_bench import _templates, case_text
+from bench.varied_library import case_text as varied_case_text
 from workup import quickread
 from workup.caseio import dump_case, load_case
 from workup.quickread import parse
 
 CASES = sorted((Path(__file__).resolve().parents[2] / "cases").glob("*.yaml"))
 CASE_TEXTS = [p.read_text(encoding="utf-8") for p in CASES]
+VARIED_TEXTS = [varied_case_text(i) for i in range(8)]
+"""Case files shaped unlike the demo cases: comments, SI units, literal-block notes."""
 FAST = settings(
     deadline=None, suppress_health_check=[HealthCheck.too_slow, HealthCheck.data_too_large]
 )
@@ -109,6 +112,12 @@ def test_generated_library_texts():
         accepted(case_text(templates[i % len(templates)], i, rng))
 
 
+@pytest.mark.parametrize("index", range(len(VARIED_TEXTS)))
+def test_varied_library_texts(index):
+    # The varied bench library writes notes as literal blocks; each file must be read, not declined.
+    accepted(VARIED_TEXTS[index])
+
+
 def test_results_are_fresh_objects():
     # Memoised pieces must never leak shared mutable containers between calls.
     text = CASE_TEXTS[0]
@@ -151,6 +160,17 @@ ACCEPTED = {
     "no final newline": "a: 1",
     "extra spaces after colon": "a:    1\nb:   {c:   2}\n",
     "dash-led plain": "a: -5\nb: -x\n-c: 1\n",
+    # Literal block scalars, YAML 1.1 §9.2-9.3: clip keeps one final break, strip none.
+    "literal block": "a: |\n  x\n",
+    "literal strip": "a: |-\n  x\n  y\nb: 1\n",
+    "literal keeps deeper indentation": "a: |\n  x\n    y\n  z\n",
+    "literal with empty lines": "a: |\n  x\n\n  y\n\n\nb: 2\n",
+    "literal holds what would be syntax": "a: |\n  # not a comment\n  k: {v, [w\n  - 'q\n",
+    "literal in a nested map": "a:\n  b: |\n     x\n  c: 1\n",
+    "literal in a list item": "d:\n- notes: |\n    x\n  k: 2\n- notes: |-\n    y\n",
+    "literal then a comment at the key's column": "a: |\n  x\n# c\nb: 1\n",
+    "literal with trailing spaces on a line": "a: |\n  x  \n  y\n",
+    "literal header with spaces after": "a:   |  \n  x\n",
 }
 
 
@@ -166,8 +186,18 @@ DECLINED = {
     "local tag": "a: !x y\n",
     "anchor": "a: &x 1\nb: 2\n",
     "alias": "a: 1\nb: *x\n",
-    "literal block": "a: |\n  x\n",
     "folded block": "a: >\n  x\n",
+    "literal keep": "a: |+\n  x\n\n",
+    "literal indentation indicator": "a: |2\n   x\n",
+    "literal comment after header": "a: | # c\n  x\n",
+    "literal leading empty line": "a: |\n\n  x\n",
+    "literal line of spaces": "a: |\n  x\n   \n  y\n",
+    "literal empty": "a: |\nb: 1\n",
+    "literal not deeper": "a:\n  b: |\n  x\n",
+    "literal at the end without a break": "a: |\n  x",
+    "literal as a sequence item": "a:\n- |\n  x\n",
+    "literal inside a flow": "a: [x,\n  b: |\n    y]\n",
+    "literal less indented line": "a:\n    b: |\n        x\n      c: 1\n",
     "document start": "---\na: 1\n",
     "document end": "a: 1\n...\n",
     "document start later": "a: 1\n---\nb: 2\n",
@@ -491,7 +521,7 @@ def block_map(pick: Random, wild: bool, col: int, depth: int) -> list[str]:
         if pick.chance(0.1):
             lines.append(" " * pick.integer(0, col + 4) + "# note" if pick.chance(0.6) else "")
         k = " " * col + key(pick, wild, used) + ":"
-        kind = pick.choice(["scalar"] * 5 + ["flow"] * 2 + ["empty", "block", "seq"])
+        kind = pick.choice(["scalar"] * 5 + ["flow"] * 2 + ["empty", "block", "seq", "literal"])
         if kind in ("block", "seq") and depth >= 2:
             kind = "scalar"
         sep = " " * pick.choice([1, 1, 1, 2])
@@ -501,6 +531,8 @@ def block_map(pick: Random, wild: bool, col: int, depth: int) -> list[str]:
             lines.append(k + sep + flow(pick, wild, col) + trailing(pick, wild))
         elif kind == "empty":
             lines.append(k + trailing(pick, wild))
+        elif kind == "literal":
+            lines += literal(pick, wild, k + sep, col)
         elif kind == "block":
             lines.append(k + trailing(pick, wild))
             lines += block_map(pick, wild, col + pick.choice([2, 3, 4]), depth + 1)
@@ -509,6 +541,23 @@ def block_map(pick: Random, wild: bool, col: int, depth: int) -> list[str]:
             lines += block_seq(pick, wild, col + pick.choice([0, 2, 4]), depth + 1)
         if rogue(pick, wild) and pick.chance(0.3):
             lines.append(pick.choice(["---", "...", "  &a x", "- *a", "!t x: 1", "|", "? k"]))
+    return lines
+
+
+def literal(pick: Random, wild: bool, head: str, col: int) -> list[str]:
+    """A literal block scalar under ``head`` (``key:`` plus spaces) whose key sits at ``col``."""
+    odd = wild and pick.chance(0.2)
+    lines = [head + pick.choice(["|+", "|2", "| #c", ">"] if odd else ["|", "|", "|-"])]
+    depth = col + pick.choice([1, 2, 2, 4])
+    for n in range(pick.integer(1, 4)):
+        if n and pick.chance(0.2):
+            lines.append("")
+        extra = " " * pick.choice([0, 0, 0, 1, 3]) if n else ""  # the first line sets the depth
+        plain = pick.choice(["free text: #1, {x}", "- y", "z"])
+        text = pick.text() if wild and pick.chance(0.3) else plain
+        lines.append(" " * depth + extra + (text or "t"))
+    if wild and pick.chance(0.2):
+        lines.append(" " * pick.integer(0, depth + 2))
     return lines
 
 
@@ -535,7 +584,9 @@ def document(pick: Random, wild: bool) -> str:
     """A case-like document; ``wild`` ones may break any rule, the others are well formed."""
     lines = ["# Invented case-like document for tests."] if pick.chance(0.5) else []
     lines += block_map(pick, wild, 0, 0)
-    return "\n".join(lines) + ("\n" if pick.chance(0.9) else "")
+    text = "\n".join(lines)
+    # A literal block at the very end needs its final line break to be read (see DECLINED).
+    return text + ("\n" if pick.chance(0.9) or (not wild and "|" in text) else "")
 
 
 @settings(FAST, max_examples=250)
@@ -564,6 +615,7 @@ def test_share_of_generated_documents_read():
 MUTATION_POOL = [*":,{}[]#'\"- \n\t&*!|", "  ", "\n  ", "0", "x", "\\", "é"]
 SOURCES = [
     *CASE_TEXTS,
+    *VARIED_TEXTS[:3],
     dump_case(load_case(CASES[1])),
     case_text(_templates()[1], 7, random.Random(7)),
 ]
