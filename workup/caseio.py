@@ -317,7 +317,15 @@ def _represent_dict(dumper: yaml.SafeDumper, data: dict[str, Any]) -> yaml.Node:
     return dumper.represent_mapping("tag:yaml.org,2002:map", data.items(), flow_style=flow)
 
 
+def _represent_str(dumper: yaml.SafeDumper, data: str) -> yaml.Node:
+    # Notes of several lines read best, and are edited most safely, as a literal block; the
+    # emitter itself falls back to a quoted style where a block cannot hold the text exactly.
+    style = "|" if "\n" in data else None
+    return dumper.represent_scalar("tag:yaml.org,2002:str", data, style=style)
+
+
 _FlowDumper.add_representer(dict, _represent_dict)
+_FlowDumper.add_representer(str, _represent_str)
 
 
 WRAP_AT = 96

@@ -157,6 +157,28 @@ def test_dump_round_trips(cases_dir) -> None:
         assert again == case, path.name
 
 
+MULTI_LINE_NOTES = [
+    # (notes, the header the file should show); YAML 1.1 §9.3 chomping: "|" keeps one final
+    # break, "|-" none, "|+" more than one. Text a block cannot hold exactly stays quoted.
+    ("Seen on the ward.\nRepeat gas at 14:00: pending.\n", "notes: |\n"),
+    ("first line\n  indented # not a comment", "notes: |-\n"),
+    ("ends with two breaks\n\n", "notes: |+\n"),
+    ("trailing space \nbefore a break", "notes: "),
+]
+
+
+@pytest.mark.parametrize(("notes", "header"), MULTI_LINE_NOTES)
+def test_multi_line_notes_are_written_as_literal_blocks(cases_dir, notes, header) -> None:
+    case = load_case(sorted(cases_dir.glob("*.yaml"))[0])
+    draw = case.draws[0].model_copy(update={"notes": notes})
+    case = case.model_copy(update={"notes": notes, "draws": [draw, *case.draws[1:]]})
+    text = dump_case(case)
+    assert text.count(header) == 2, text  # the case's and the draw's notes
+    if header != "notes: ":
+        assert notes.splitlines()[0] in text  # the first line as typed, not escaped
+    assert case_from_text(text) == case
+
+
 def test_duplicate_draw_labels_refused() -> None:
     text = GOOD + "  - label: first\n"
     assert any("labelled 'first'" in p.message for p in _problems(text))
