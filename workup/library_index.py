@@ -23,15 +23,17 @@ from typing import Any
 from workup import __version__
 from workup.library_draws import DrawValues, draws_from_json
 from workup.library_pool import POOL_THRESHOLD, pool_allowed, summarize_many
-from workup.library_rows import ROW_FIELDS, LibraryEntry, entry_from_row
+from workup.library_rows import ROW_FIELDS, LibraryEntry, entry_from_row, listing_json
 from workup.library_scan import scan_folder
 from workup.library_summary import summarize_file
 
-INDEX_SCHEMA = 4
+INDEX_SCHEMA = 5
 """Bump when the table layout or the meaning of a column changes."""
 
 _CORE = Path(__file__).resolve().parent
 _LIST_COLUMNS = ", ".join(ROW_FIELDS[:-2])
+_STORED = (*ROW_FIELDS, "listing")
+"""The stored columns: a summary row, then its ``workup list --json`` object as text."""
 _TYPE = {
     **dict.fromkeys(("n_draws", "pending", "loading_expected", "has_loading"), "INTEGER"),
     "numbers": "BLOB",
@@ -40,7 +42,8 @@ _CREATE = f"""
 CREATE TABLE meta (key TEXT PRIMARY KEY, value TEXT NOT NULL);
 CREATE TABLE cases (
     name TEXT PRIMARY KEY, size INTEGER NOT NULL, mtime_ns INTEGER NOT NULL, ok INTEGER NOT NULL,
-    {", ".join(f"{f} {_TYPE.get(f, 'TEXT')}" for f in ROW_FIELDS[4:])}
+    {", ".join(f"{f} {_TYPE.get(f, 'TEXT')}" for f in ROW_FIELDS[4:])},
+    listing TEXT NOT NULL
 );
 """
 
@@ -160,6 +163,8 @@ class LibraryIndex:
         self._rebuilt = rebuilt
         self._fresh: dict[str, tuple[Any, ...]] | None = None
         """Listing rows of the last refresh, when it read every file itself."""
+        self._fresh_json: dict[str, str] = {}
+        """Their ``--json`` objects as text, by name."""
 
     @classmethod
     def open(
@@ -227,18 +232,21 @@ class LibraryIndex:
             todo = [(n, s, m) for n, s, m in todo if known.get(n) != (s, m)]
         else:
             read_by_helper = 0
-        insert = f"INSERT OR REPLACE INTO cases ({', '.join(ROW_FIELDS)}) VALUES ({', '.join('?' * len(ROW_FIELDS))})"
+        insert = f"INSERT OR REPLACE INTO cases ({', '.join(_STORED)}) VALUES ({', '.join('?' * len(_STORED))})"
         if gone:
             self._write(
                 lambda c: c.executemany("DELETE FROM cases WHERE name=?", [(n,) for n in gone])
             )
         fresh: dict[str, tuple[Any, ...]] = {}
+        fresh_json: dict[str, str] = {}
         if todo:
             pending: list[tuple[Any, ...]] = []
+            folder = self.folder
             for rows in summarize_many(self.folder, todo, self.overrides, workers):
-                pending += rows
                 for r in rows:
                     fresh[r[0]] = r[:-2]
+                    text = fresh_json[r[0]] = listing_json(entry_from_row(folder, r[:-2]))
+                    pending.append((*r, text))
                 # A few hundred rows per transaction: fewer commits, and an interrupted build
                 # still keeps nearly all it has read.
                 if len(pending) >= 400:
@@ -248,6 +256,7 @@ class LibraryIndex:
                 self._write(lambda c, rows=pending: c.executemany(insert, rows))
         # When this process read every file, the listing needs nothing back from the database.
         self._fresh = fresh if len(fresh) == len(on_disk) else None
+        self._fresh_json = fresh_json
         read = max(read_by_helper, len(todo))
         stats = RefreshStats(read, len(gone), len(on_disk) - read, self._rebuilt)
         self._rebuilt = False
@@ -269,6 +278,19 @@ class LibraryIndex:
             return [entry_from_row(self.folder, fresh[n]) for n in sorted(fresh)]
         rows = self.conn.execute(f"SELECT {_LIST_COLUMNS} FROM cases ORDER BY name")
         return [entry_from_row(self.folder, r) for r in rows]
+
+    def listing(self, reverse: bool = False) -> list[tuple[str, bool]]:
+        """(``workup list --json`` object as text, loaded?) of every case in the listing's file
+        order (as ``sort_entries(..., "file", reverse)``: by name, files that did not load last),
+        without building an entry per case."""
+        if self._fresh is not None:
+            fresh, text = self._fresh, self._fresh_json
+            ordered = sorted(fresh, reverse=reverse)
+            ordered.sort(key=lambda n: not fresh[n][3])  # stable: name order kept within each
+            return [(text[n], bool(fresh[n][3])) for n in ordered]
+        way = "DESC" if reverse else "ASC"
+        rows = self.conn.execute(f"SELECT listing, ok FROM cases ORDER BY ok = 0, name {way}")
+        return [(text, bool(ok)) for text, ok in rows]
 
     def draws(self, names: list[str] | None = None) -> dict[str, list[DrawValues]]:
         """The stored per-draw numbers of ``names`` (default: every case), for search conditions."""

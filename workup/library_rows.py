@@ -8,6 +8,7 @@ Nothing here imports anything heavy: a warm listing only reads rows.
 from __future__ import annotations
 
 import functools
+import json
 from collections.abc import Callable
 from dataclasses import dataclass
 from pathlib import Path
@@ -89,6 +90,15 @@ class LibraryEntry:
             "next_test": self.next_test,
             "loading_expected": self.loading_expected,
         }
+
+
+_ENCODE = json.JSONEncoder(ensure_ascii=False).encode
+
+
+def listing_json(entry: LibraryEntry) -> str:
+    """The entry's ``workup list --json`` object as JSON text (the index keeps it per row, so a
+    repeat listing writes it out without building the entry again)."""
+    return _ENCODE(entry.to_json())
 
 
 # Column order shared with workup.library_index (the index stores rows as these tuples).

@@ -133,3 +133,33 @@ def test_an_unchanged_repeat_listing_needs_neither_the_model_nor_yaml(
     )
     done = subprocess.run([sys.executable, "-c", probe], env=env, capture_output=True, text=True)
     assert done.stdout.strip() == "0 []", done.stdout + done.stderr
+
+
+def _objects_from_entries(folder: Path, reverse: bool) -> list[dict]:
+    """The --json objects as the general path makes them: entries, sorted, each to_json."""
+    from workup.library import list_library, sort_entries
+
+    return [e.to_json() for e in sort_entries(list_library(folder), "file", reverse)]
+
+
+@pytest.mark.parametrize("reverse", [False, True])
+def test_plain_json_listing_from_stored_rows_matches_the_entries(
+    folder: Path, capsys, reverse: bool
+) -> None:
+    """The plain ``--json`` listing writes each row's stored JSON; it must say exactly what the
+    entries say, in the same order (files that did not load last), cold, warm and after an edit."""
+    flag = ["--reverse"] if reverse else []
+    outputs = []
+    for step in ("cold", "warm", "edited"):
+        if step == "edited":
+            path = folder / "distal-rta-classic.yaml"
+            path.write_text(path.read_text(encoding="utf-8") + "# edited\n", encoding="utf-8")
+        assert main(["list", str(folder), "--json", *flag]) == 0
+        out, err = capsys.readouterr()
+        outputs.append(out)
+        assert json.loads(out) == _objects_from_entries(folder, reverse), step
+        n = len(list(folder.glob("*.yaml")))
+        assert f"{n} of {n} case file(s)" in err and "1 did not load" in err
+    files = [d["file"] for d in json.loads(outputs[0])]
+    assert files[-1] == "broken.yaml" and files[:-1] == sorted(files[:-1], reverse=reverse)
+    assert outputs[0] == outputs[1] == outputs[2]

@@ -85,6 +85,9 @@ def run(args: argparse.Namespace) -> int:
 
         remove_index(cache_path(folder, overrides))
     with open_library(folder, None, overrides) as index:
+        if args.json and not args.cohort and not query.terms and args.sort == "file":
+            # The plain listing, the one run most: the index keeps each row's JSON text.
+            return _write_stored(index.listing(args.reverse), folder)
         entries = sort_entries(index.entries(), args.sort, args.reverse)
         matches = search(entries, query, index.draws)
     if args.cohort:
@@ -109,6 +112,15 @@ def run(args: argparse.Namespace) -> int:
     bad = sum(1 for m in matches if not m.entry.ok)
     tail = f"; {bad} did not load" if bad else ""
     print(f"{len(matches)} of {len(entries)} case file(s) in {folder}{tail}", file=sys.stderr)
+    return 0
+
+
+def _write_stored(rows: list[tuple[str, bool]], folder: Path) -> int:
+    """Write stored listing objects as ``--json`` does (one case per line) and the count line."""
+    sys.stdout.write("[\n" + ",\n".join(t for t, _ in rows) + "\n]\n" if rows else "[]\n")
+    bad = sum(1 for _, ok in rows if not ok)
+    tail = f"; {bad} did not load" if bad else ""
+    print(f"{len(rows)} of {len(rows)} case file(s) in {folder}{tail}", file=sys.stderr)
     return 0
 
 
