@@ -81,7 +81,7 @@ def judge(
     """Apply every rule to the readings; returns the tally and the ammonium call."""
     t = Tally(weights_only=weights_only)
     _history(t, rd.context)
-    nh4 = ammonium(rd)
+    nh4 = ammonium(rd, s)
     for key, r in answers(rd, nh4, s):
         rules = ANSWER_RULES.get(key)
         if not rules:
