@@ -158,6 +158,13 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool 
         )
     if nh4 is not None and ("outweighed" in nh4.text or "set aside" in nh4.text):
         notes.append("Ammonium: " + nh4.text + ".")
+    if rd.unmeasured_anions is not None:
+        notes.append(
+            "Unmeasured urine anions: " + rd.unmeasured_anions + ": ammonium is leaving with "
+            "anions the urine anion gap does not count (hippurate after toluene, ketoanions, "
+            "D-lactate, some antibiotics such as penicillins), so ammonium is read from the "
+            "osmolal gap or a measured value, not from the anion gap."
+        )
     if not any(c.verdict is Verdict.likely for c in ranked):
         notes.append(
             "No cause reaches 'likely' yet; the suggested tests would separate the leaders."

@@ -127,6 +127,10 @@ def reading(f: Finding, brief: bool = False) -> str | None:
     if f.id in ("egfr", "egfr_schwartz"):
         return f.interpretation if brief else f"KDIGO category {f.interpretation}"
     word = plain_word(f)
+    if "unmeasured_anions" in f.extra:
+        # Beside ample ammonium the urine anion gap is not read as low ammonium; the caution
+        # that follows says why.
+        return word.replace("_", " ")
     # A borderline reading keeps its side's phrase and says it sits on the cut-off.
     mark = " (borderline)" if f.borderline else ""
     if brief and word in BRIEF_READING.get(f.id, {}):

@@ -71,6 +71,9 @@ class Readings:
     """Labels of the draws with a normal-gap acidosis and no loading test."""
     context: frozenset[Flag] = frozenset()
     """The case's context flags."""
+    unmeasured_anions: str | None = None
+    """When a positive or near-zero urine anion gap sits beside ample ammonium in an acidosis
+    draw (anions the gap does not count), the two readings in words; else None."""
 
     def get(self, key: str) -> Reading | None:
         """The reading of ``key``, if any."""
@@ -173,6 +176,12 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
         out.acidosis_draws.append(r.label)
         for key, fid in STEADY_INDICES.items():
             _offer(out, key, found.get(fid), r.label)
+        uag = found.get("urine_anion_gap")
+        if uag is not None and uag.value is not None and "unmeasured_anions" in uag.extra:
+            out.unmeasured_anions = (
+                f"urine anion gap {_num(uag)} mmol/L ({r.label}) beside "
+                f"{uag.extra['unmeasured_anions'].removeprefix('the ')}"
+            )
         if "ammonium" in x.urine:
             # A measured ammonium is the reference; the ratio to creatinine is preferred because
             # it does not depend on how concentrated the urine is.

@@ -37,5 +37,6 @@ CAUSE = Cause(
         Flag.autoimmune_disease: (1.5, "Sjögren's and lupus cause classic distal RTA"),
         Flag.lithium: (1.0, "lithium impairs distal acidification"),
         Flag.toluene: (1.0, "toluene gives a distal-RTA-like picture"),
+        Flag.solvent_inhalation: (1.0, "toluene gives a distal-RTA-like picture"),
     },
 )  # fmt: skip
