@@ -1,7 +1,8 @@
 """Which test to do next: the ones whose expected result differs most between the leading causes.
 
-Each test carries a *signature*: the result expected under each cause (sheet §10–11: Berend et al.,
-Kidney Dis 2017, Table 1; Rodríguez Soriano, JASN 2002, Table 5; common practice for the rest).
+Each test carries a *signature*: the result expected under each cause (Berend et al., Kidney Dis
+2017, Table 1; Rodríguez Soriano, JASN 2002, Table 5; Batlle et al., NEJM 1988; common practice
+for the confirmatory tests).
 Two causes are separated by a test when their expected results differ. A test's usefulness is the
 sum, over each pair of leading causes it separates, of 1 / (1 + the gap between their scores), so
 a test that splits two close candidates ranks above one that splits a clear leader from an

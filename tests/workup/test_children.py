@@ -31,7 +31,8 @@ def _findings(case):
 def test_demo_child_schwartz_egfr_matches_the_formula_by_hand():
     f = _findings(load_case(CHILD))["egfr_schwartz"]
     # Bedside Schwartz (Schwartz et al., JASN 2009): eGFR = 0.413 × height (cm) / Scr (mg/dL).
-    # Height 110 cm; creatinine 35 µmol/L ÷ 88.4 = 0.3959 mg/dL (sheet §12 conversion);
+    # Height 110 cm; creatinine 35 µmol/L ÷ 88.4 = 0.3959 mg/dL (10 000 / 113.12 g/mol,
+    # IUPAC atomic weights);
     # 0.413 × 110 × 88.4 / 35 = 4016.01 / 35 = 114.74 mL/min/1.73 m2, KDIGO 2012 category G1.
     assert f.value == pytest.approx(114.74, abs=0.01)
     assert f.status is Status.ok and f.interpretation == "G1"

@@ -22,7 +22,7 @@ READING: dict[str, dict[str, str]] = {
     "delta_ratio": {
         "pure_normal_gap": "in keeping with a pure normal-gap acidosis",
         # The 0.4-0.8 band also holds the acidosis of kidney failure (Brandis, Acid-Base
-        # Physiology; clinical-methods sheet section 3), so the words leave both readings open.
+        # Physiology), so the words leave both readings open.
         "mixed_high_and_normal_gap": "in the range of a combined high-gap and normal-gap "
         "acidosis, also seen in the acidosis of kidney failure",
         "high_gap": "in keeping with an uncomplicated high-gap acidosis",
