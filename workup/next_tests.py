@@ -181,6 +181,13 @@ CATALOGUE: tuple[SuggestedTest, ...] = (
 """Every test the ranker may suggest, in the order used to break ties."""
 
 
+CHILD_EGFR_TEXT = (
+    "Height (cm) with serum creatinine for the bedside Schwartz eGFR (under 18; Schwartz et "
+    "al., JASN 2009)"
+)
+"""The eGFR test's text when the patient is a child without a recorded height."""
+
+
 def leading(calls: list[PatternCall]) -> list[PatternCall]:
     """The candidates the next test should separate: not unlikely, best first."""
     return [c for c in calls if c.verdict is not Verdict.unlikely][:LEADING_MAX]
@@ -252,7 +259,10 @@ def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
         if use <= 0:
             continue
         seps = tuple(c.id for c in lead if c.id in split)
-        scored.append((use, order, new_next_test(spec.id, spec.text, spec.why, seps)))
+        text = spec.text
+        if spec.id == "egfr" and "patient.height" in rd.egfr_needs:
+            text = CHILD_EGFR_TEXT  # a child's eGFR waits for a height, not a creatinine
+        scored.append((use, order, new_next_test(spec.id, text, spec.why, seps)))
     scored.sort(key=lambda t: (-t[0], t[1]))
     return first + [t for _, _, t in scored]
 

@@ -77,6 +77,12 @@ QUESTION: dict[str, tuple[tuple[str, ...], str]] = {
 }
 """Question → (reading keys that answer it, what to enter in words)."""
 
+CHILD_EGFR_WORDS = (
+    "eGFR: the child's height (cm) with serum creatinine, for the bedside Schwartz eGFR "
+    "(Schwartz et al., JASN 2009; CKD-EPI does not apply under 18)"
+)
+"""What the ``egfr`` question asks for when a child's eGFR is waiting for a height."""
+
 
 Answer = tuple[tuple[str, str], Reading]
 """((question, answer word), the reading it rests on): the key the cause tables are looked up
@@ -180,6 +186,8 @@ def missing_for(pid: str, rd: Readings) -> tuple[str, ...]:
         keys, words = QUESTION[q]
         if not have.keys().isdisjoint(keys):  # some reading answers it
             continue
+        if q == "egfr" and "patient.height" in rd.egfr_needs:
+            words = CHILD_EGFR_WORDS
         aside = [rd.set_aside[k] for k in keys if k in rd.set_aside]
         out.append(words + (" — " + "; ".join(aside) if aside else ""))
     return tuple(out)
