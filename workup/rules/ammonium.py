@@ -55,9 +55,6 @@ _AMMONIUM_WORD = {
 
 _new_ammonium_call = builder(AmmoniumCall)
 
-GRADES = ("low", "adequate", "clearly_high")
-"""The grades of an ammonium call, weakest renal response first."""
-
 
 def _clearly_high_cut(index: str | None, s: Settings) -> float | None:
     """The clearly-high cut-off of the finding a reading rests on; None when it has none (the
@@ -73,9 +70,10 @@ def _clearly_high_cut(index: str | None, s: Settings) -> float | None:
 
 
 def grade(r: Reading, s: Settings) -> str:
-    """``low``, ``adequate`` or ``clearly_high`` for an ammonium reading (cut-offs and sources:
-    the settings ``uog_clearly_high_above``, ``urine_ammonium_clearly_high_above`` and
-    ``nh4_creatinine_clearly_high_above``)."""
+    """``low``, ``adequate`` or ``clearly_high`` for an ammonium reading that makes a call (word
+    ``adequate``, ``negative``, ``low`` or ``positive``). Cut-offs and sources: the settings
+    ``uog_clearly_high_above``, ``urine_ammonium_clearly_high_above`` and
+    ``nh4_creatinine_clearly_high_above``."""
     if _AMMONIUM_WORD[r.word] == "low":
         return "low"
     cut = _clearly_high_cut(r.index, s)

@@ -44,10 +44,15 @@ def age_group(age: int | None) -> str:
     return "children" if age is not None and age < CHILD_BELOW else "adults"
 
 
+_PLACES = {
+    "adults": {pid: i for i, pid in enumerate(ADULT_ORDER)},
+    "children": {pid: i for i, pid in enumerate(CHILD_ORDER)},
+}
+
+
 def prior_order(age: int | None) -> dict[str, int]:
-    """Cause id → its place in the order for ``age`` (0 = most common)."""
-    order = CHILD_ORDER if age_group(age) == "children" else ADULT_ORDER
-    return {pid: i for i, pid in enumerate(order)}
+    """Cause id → its place in the order for ``age`` (0 = most common); shared, do not change."""
+    return _PLACES[age_group(age)]
 
 
 def tie_note(names: list[str], age: int | None) -> str:
