@@ -246,7 +246,7 @@ def caution_suffix(
     (its first clause only when ``brief``)."""
     inner = [words] if words else []
     if f.borderline and "borderline" not in (words or ""):
-        inner.append("borderline: on the cut-off")
+        inner.append("borderline: within the margin of its cut-off")
     if f.status is Status.caution:
         why = _gist(_once(caveat(f), seen), brief)
         inner.append(f"read with caution: {why}" if why else "read with caution")
