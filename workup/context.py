@@ -42,6 +42,8 @@ class Flag(StrEnum):
     acute_kidney_injury = "acute_kidney_injury"
     kidney_stones = "kidney_stones"
     nephrocalcinosis = "nephrocalcinosis"
+    solvent_inhalation = "solvent_inhalation"
+    ketosis = "ketosis"
 
 
 MEANING: dict[Flag, str] = {
@@ -75,6 +77,8 @@ MEANING: dict[Flag, str] = {
     Flag.acute_kidney_injury: "acute kidney injury: creatinine not in a steady state",
     Flag.kidney_stones: "kidney stones, recurrent or calcium-phosphate",
     Flag.nephrocalcinosis: "nephrocalcinosis on imaging",
+    Flag.solvent_inhalation: "glue, paint or thinner sniffing (toluene): hippurate in urine",
+    Flag.ketosis: "fasting, alcohol or low-carbohydrate ketosis: ketoanions in urine",
 }
 
 HYPERKALEMIA_DRUGS = frozenset(
@@ -87,6 +91,15 @@ HYPERKALEMIA_DRUGS = frozenset(
         Flag.nsaid,
     }
 )
+SAME_AS: dict[Flag, Flag] = {Flag.toluene: Flag.solvent_inhalation}
+"""Older flag → the flag it is read as. ``toluene`` (kept so existing case files still load and
+mean the same) is read as ``solvent_inhalation``: a case with both counts the history once."""
+SOLVENT = frozenset({Flag.toluene, Flag.solvent_inhalation})
+"""Solvent inhalation, under either flag: hippurate, an anion the urine anion gap does not count."""
+KETOANIONS = frozenset({Flag.ketoacidosis, Flag.ketosis})
+"""Ketoacidosis or ketosis: ketoanions, which the urine anion gap does not count."""
+UNMEASURED_URINE_ANIONS = SOLVENT | KETOANIONS
+"""History that explains a urine anion gap too high for the ammonium the kidney excretes."""
 GI_LOSS = frozenset(
     {Flag.diarrhea, Flag.laxatives, Flag.bowel_fistula_or_ostomy, Flag.urinary_diversion}
 )

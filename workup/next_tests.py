@@ -1,7 +1,8 @@
 """Which test to do next: the ones whose expected result differs most between the leading causes.
 
-Each test carries a *signature*: the result expected under each cause (sheet §10–11: Berend et al.,
-Kidney Dis 2017, Table 1; Rodríguez Soriano, JASN 2002, Table 5; common practice for the rest).
+Each test carries a *signature*: the result expected under each cause (Berend et al., Kidney Dis
+2017, Table 1; Rodríguez Soriano, JASN 2002, Table 5; Batlle et al., NEJM 1988; common practice
+for the confirmatory tests).
 Two causes are separated by a test when their expected results differ. A test's usefulness is the
 sum, over each pair of leading causes it separates, of 1 / (1 + the gap between their scores), so
 a test that splits two close candidates ranks above one that splits a clear leader from an
@@ -14,7 +15,7 @@ from __future__ import annotations
 from dataclasses import dataclass
 from itertools import combinations
 
-from workup.context import Flag
+from workup.context import UNMEASURED_URINE_ANIONS, Flag
 from workup.findings import NextTest, PatternCall, Verdict, new_next_test
 from workup.pattern_rules import Readings
 
@@ -180,16 +181,64 @@ CATALOGUE: tuple[SuggestedTest, ...] = (
 """Every test the ranker may suggest, in the order used to break ties."""
 
 
+CHILD_EGFR_TEXT = (
+    "Height (cm) with serum creatinine for the bedside Schwartz eGFR (under 18; Schwartz et "
+    "al., JASN 2009)"
+)
+"""The eGFR test's text when the patient is a child without a recorded height."""
+
+
 def leading(calls: list[PatternCall]) -> list[PatternCall]:
     """The candidates the next test should separate: not unlikely, best first."""
     return [c for c in calls if c.verdict is not Verdict.unlikely][:LEADING_MAX]
 
 
-def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
-    """Tests most useful first (see module doc); [] when no candidate is left."""
-    lead = leading(calls)
-    if not lead:
+UNMEASURED_ANION_TESTS: tuple[SuggestedTest, ...] = (
+    SuggestedTest(
+        "unmeasured_anion_history",
+        "Ask about solvent sniffing (toluene), fasting, alcohol, short bowel (D-lactate) and "
+        "penicillin-type antibiotics; check urine and blood ketones",
+        "a positive or near-zero urine anion gap with plenty of ammonium means unmeasured urine "
+        "anions: hippurate, ketoanions, D-lactate or drug anions (Kamel et al., AJKD 1997; "
+        "Berend et al., Kidney Dis 2017, Table 1)",
+        {},
+    ),
+    SuggestedTest(
+        "urine_ammonium_measured",
+        "Measured urine ammonium with urine creatinine (fresh urine)",
+        "settles the disagreement between the urine anion and osmolal gaps: the anion gap "
+        "misses ammonium excreted with unmeasured anions (Kamel et al., AJKD 1997)",
+        {},
+        ("measured_ammonium",),
+    ),
+)
+"""Tests when the urine anion gap disagrees with ample ammonium (unmeasured urine anions)."""
+
+
+def _unmeasured_anion_tests(rd: Readings, lead: list[PatternCall]) -> list[NextTest]:
+    """The history and the measured ammonium that resolve unmeasured urine anions; [] when the
+    gaps agree. The history is left out once a flag that explains the anions is recorded."""
+    if rd.unmeasured_anions is None:
         return []
+    seps = tuple(c.id for c in lead)
+    out = []
+    for spec in UNMEASURED_ANION_TESTS:
+        if spec.done_by and not rd.by_key.keys().isdisjoint(spec.done_by):
+            continue
+        if spec.id == "unmeasured_anion_history" and rd.context & UNMEASURED_URINE_ANIONS:
+            continue
+        out.append(new_next_test(spec.id, spec.text, spec.why, seps))
+    return out
+
+
+def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
+    """Tests most useful first (see module doc); [] when no candidate is left. Unmeasured urine
+    anions (:func:`_unmeasured_anion_tests`) come first: until they are explained the urine
+    ammonium, on which most causes turn, is uncertain."""
+    lead = leading(calls)
+    first = _unmeasured_anion_tests(rd, lead)
+    if not lead:
+        return first
     top = lead[0].id
     scored: list[tuple[float, int, NextTest]] = []
     pairs = [(a.id, b.id, 1.0 / (1.0 + abs(a.score - b.score))) for a, b in combinations(lead, 2)]
@@ -210,9 +259,12 @@ def suggest(calls: list[PatternCall], rd: Readings) -> list[NextTest]:
         if use <= 0:
             continue
         seps = tuple(c.id for c in lead if c.id in split)
-        scored.append((use, order, new_next_test(spec.id, spec.text, spec.why, seps)))
+        text = spec.text
+        if spec.id == "egfr" and "patient.height" in rd.egfr_needs:
+            text = CHILD_EGFR_TEXT  # a child's eGFR waits for a height, not a creatinine
+        scored.append((use, order, new_next_test(spec.id, text, spec.why, seps)))
     scored.sort(key=lambda t: (-t[0], t[1]))
-    return [t for _, _, t in scored]
+    return first + [t for _, _, t in scored]
 
 
 INCOMPLETE = "incomplete_distal_rta"

@@ -18,9 +18,10 @@ from workup.findings import (
     new_evidence,
     new_pattern_call,
 )
-from workup.next_tests import suggest, suggest_without_acidosis
+from workup.next_tests import leading, suggest, suggest_without_acidosis
 from workup.pattern_rules import PATTERNS, Readings, Tally, gather, judge, missing_for
 from workup.rules.causes.incomplete_distal_rta import CAUSE as INCOMPLETE
+from workup.rules.prior import prior_order, tie_note
 from workup.settings import Settings
 
 LIKELY_AT = 4.0
@@ -115,6 +116,15 @@ def _without_acidosis(
     return Ranking(ranked, suggest_without_acidosis(rd, call), notes)
 
 
+def _tie_notes(ranked: list[PatternCall], age: int | None) -> list[str]:
+    """A note for each group of equal scores among the leading causes (those the next tests
+    separate, workup.next_tests.leading)."""
+    groups: dict[float, list[str]] = {}
+    for c in leading(ranked):
+        groups.setdefault(round(c.score, 6), []).append(c.name)
+    return [tie_note(names, age) for names in groups.values() if len(names) > 1]
+
+
 def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool = True) -> Ranking:
     """Judge each candidate cause on the whole case; best first.
 
@@ -137,14 +147,18 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool 
         return Ranking(calls, suggest_without_acidosis(rd, None), [why])
 
     tally, nh4 = judge(rd, settings, weights_only=not evidence)
+    age = getattr(getattr(case, "patient", None), "age", None)
+    # Equal scores are ordered by how common each cause is at this age (a prior, said in a
+    # note), then by the table order.
+    prior = prior_order(age)
     calls = []
     for order, (pid, name) in enumerate(PATTERNS.items()):
         if pid not in WITHOUT_ACIDOSIS:
-            calls.append((order, _call(pid, name, tally, rd, evidence)))
-    calls.sort(key=lambda t: (-t[1].score, t[0]))
-    ranked = [c for _, c in calls]
+            calls.append((prior.get(pid, len(prior)), order, _call(pid, name, tally, rd, evidence)))
+    calls.sort(key=lambda t: (-round(t[2].score, 6), t[0], t[1]))
+    ranked = [c for _, _, c in calls]
 
-    notes = []
+    notes = _tie_notes(ranked, age)
     presumed = [
         r.label for r in draws if r.label in rd.acidosis_draws and any(
             d.id == "normal_gap_metabolic_acidosis" and (d.detail or "").startswith("presumed")
@@ -158,6 +172,13 @@ def rank(draws: list[DrawResult], case: Any, settings: Settings, evidence: bool 
         )
     if nh4 is not None and ("outweighed" in nh4.text or "set aside" in nh4.text):
         notes.append("Ammonium: " + nh4.text + ".")
+    if rd.unmeasured_anions is not None:
+        notes.append(
+            "Unmeasured urine anions: " + rd.unmeasured_anions + ": ammonium is leaving with "
+            "anions the urine anion gap does not count (hippurate after toluene, ketoanions, "
+            "D-lactate, some antibiotics such as penicillins), so ammonium is read from the "
+            "osmolal gap or a measured value, not from the anion gap."
+        )
     if not any(c.verdict is Verdict.likely for c in ranked):
         notes.append(
             "No cause reaches 'likely' yet; the suggested tests would separate the leaders."

@@ -56,6 +56,7 @@ INDEX_IDS = (
     "tmp_gfr",
     "fe_urate",
     "egfr",
+    "egfr_schwartz",
 )
 
 SHORT_NAMES: dict[str, str] = {

@@ -181,6 +181,19 @@ class Settings(BaseModel):
     urine_ammonium_adequate_above: float = Field(75.0, json_schema_extra={"unit": "mmol/L"})
     """During acidosis a urine ammonium above this is adequate (derived: half the urine osmolal
     gap cut-off of 150, Berend et al., Kidney Dis 2017; arithmetic, not published)."""
+    uog_clearly_high_above: float = Field(200.0, json_schema_extra={"unit": "mOsm/kg"})
+    """In acidosis a urine osmolal gap above this is clearly high ammonium, twice the low cut-off:
+    it counts strongly against the low-ammonium causes (distal RTA, type 4, CKD). Berend et al.,
+    Kidney Dis 2017, Table 1: diarrhea above 200, distal and type 4 RTA below 150; Kim et al.,
+    AJKD 1996: distal RTA 129.7 ± 17.0 against NH4Cl-loaded controls 319.7 ± 58.4."""
+    urine_ammonium_clearly_high_above: float = Field(100.0, json_schema_extra={"unit": "mmol/L"})
+    """During acidosis a urine ammonium above this is clearly high, twice the low cut-off (half
+    the urine osmolal gap of 200, the same relation as ``urine_ammonium_low_below``; Kamel et al.,
+    AJKD 1997; Berend et al., Kidney Dis 2017, Table 1; arithmetic, not published)."""
+    nh4_creatinine_clearly_high_above: float = Field(20.0, json_schema_extra={"unit": "mmol/mmol"})
+    """During acidosis a urine NH4/creatinine above this is clearly high: the > 200 mmol/day of
+    ammonium expected in chronic acidosis over 10 mmol/day of creatinine, several times the low
+    cut-off (derived, common practice; see nh4_creatinine_low_below)."""
     acidification_test_ph_max: float = Field(5.3, json_schema_extra={"unit": "pH"})
     """During a furosemide–fludrocortisone or ammonium chloride test, any urine pH below this is
     normal acidification (from memory: Walsh et al., Kidney Int 2007; Wrong & Davies, QJM 1959)."""

@@ -31,7 +31,8 @@ def _findings(case):
 def test_demo_child_schwartz_egfr_matches_the_formula_by_hand():
     f = _findings(load_case(CHILD))["egfr_schwartz"]
     # Bedside Schwartz (Schwartz et al., JASN 2009): eGFR = 0.413 × height (cm) / Scr (mg/dL).
-    # Height 110 cm; creatinine 35 µmol/L ÷ 88.4 = 0.3959 mg/dL (sheet §12 conversion);
+    # Height 110 cm; creatinine 35 µmol/L ÷ 88.4 = 0.3959 mg/dL (10 000 / 113.12 g/mol,
+    # IUPAC atomic weights);
     # 0.413 × 110 × 88.4 / 35 = 4016.01 / 35 = 114.74 mL/min/1.73 m2, KDIGO 2012 category G1.
     assert f.value == pytest.approx(114.74, abs=0.01)
     assert f.status is Status.ok and f.interpretation == "G1"
@@ -225,3 +226,32 @@ def test_infant_bicarbonate_caution_keeps_a_not_valid_reason_first():
     assert any("infant" in r for r in f.reasons)
     older = compute_all(DrawInputs(serum=serum, urine=urine, age=5, height_cm=110))
     assert not any("infant" in r for r in older["urine_ph"].reasons)
+
+
+def _child_without_height():
+    data = case_to_data(load_case(CHILD))
+    del data["patient"]["height"]
+    return assess(case_from_data(data))
+
+
+def test_a_child_without_height_is_asked_for_height_not_creatinine():
+    # The bedside Schwartz eGFR needs height (Schwartz et al., JASN 2009) and CKD-EPI 2021 is
+    # for adults (Inker et al., NEJM 2021): the demo child has a creatinine, so the eGFR
+    # question and its next test must ask for the height.
+    a = _child_without_height()
+    ckd = next(c for c in a.patterns if c.id == "ckd_acidosis")
+    egfr_missing = [m for m in ckd.missing if m.startswith("eGFR")]
+    assert egfr_missing and "height" in egfr_missing[0] and "Schwartz" in egfr_missing[0]
+    assert "age and sex" not in egfr_missing[0]
+    test = next(t for t in a.next_tests if t.id == "egfr")
+    assert test.text.startswith("Height") and "Schwartz" in test.text
+
+    # An adult without creatinine is still asked for creatinine, age and sex (CKD-EPI 2021).
+    data = case_to_data(load_case(CHILD))
+    data["patient"] = {"age": 40, "sex": "male"}
+    del data["draws"][0]["serum"]["creatinine"]
+    adult = assess(case_from_data(data))
+    ckd = next(c for c in adult.patterns if c.id == "ckd_acidosis")
+    assert [m for m in ckd.missing if m.startswith("eGFR")] == [
+        "eGFR (serum creatinine, age and sex)"
+    ]

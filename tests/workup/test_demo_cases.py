@@ -47,6 +47,7 @@ EXPECTED: dict[str, tuple[str | None, dict[str, list[tuple[str, bool]]]]] = {
     ),
     "respiratory-alkalosis-chronic.yaml": (None, {"ED": [("respiratory_alkalosis", True)]}),
     "child-drta.yaml": ("distal_rta", {"clinic": [("normal_gap_metabolic_acidosis", True)]}),
+    "toluene-like.yaml": (None, {"ED": [("normal_gap_metabolic_acidosis", True)]}),
     "incomplete-drta-stones.yaml": (
         "incomplete_distal_rta",
         {"furosemide 2 h": [], "furosemide 4 h": [], "furosemide 6 h": [], "clinic": []},

@@ -59,7 +59,7 @@ TESTS = ["furosemide_fludrocortisone", "ammonium_chloride"]
 )
 def test_failed_test_with_stones_leads(during, context, verdicts) -> None:
     # Never below 5.3 = failed (Walsh 2007 / Wrong & Davies 1959, both from memory); stones and
-    # nephrocalcinosis go with a distal acidification defect (sheet §10, Berend et al., Kidney
+    # nephrocalcinosis go with a distal acidification defect (Berend et al., Kidney
     # Dis 2017, Table 1: nephrocalcinosis "often" in distal RTA).
     a = assess(_case([6.4, 6.0, 6.1], context, during))
     assert a.leading is not None and a.leading.id == INC
@@ -104,8 +104,8 @@ def test_exactly_5_3_is_a_failed_test() -> None:
 
 @pytest.mark.parametrize("context", [["kidney_stones"], ["nephrocalcinosis"]])
 def test_no_test_is_not_called_but_is_suggested_with_stones(context) -> None:
-    # An acidification test is the test for the incomplete form when HCO3 is normal (sheet §11,
-    # common practice), with urine calcium and citrate.
+    # An acidification test is the test for the incomplete form when HCO3 is normal (common
+    # practice), with urine calcium and citrate.
     a = assess(_case([], context))
     assert _call(a) is None
     assert all(c.verdict is Verdict.unlikely for c in a.patterns)
@@ -132,7 +132,8 @@ def _acidotic_distal_with_failed_test() -> Any:
 
 def test_acidotic_case_goes_to_the_existing_causes() -> None:
     # The incomplete form is by definition without a systemic acidosis; with HCO3 15 and urine
-    # pH 6.8 the case is classic distal RTA (sheet §13 example 3; Berend 2017 Table 1).
+    # pH 6.8 the case is classic distal RTA (a published patient table in
+    # Blood, American Society of Hematology, authors not recorded here; Berend 2017 Table 1).
     a = assess(_acidotic_distal_with_failed_test())
     assert _call(a) is None
     assert a.leading is not None and a.leading.id == "distal_rta"

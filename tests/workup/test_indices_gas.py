@@ -1,7 +1,7 @@
 """The blood-gas indices: Henderson–Hasselbalch check and the compensation rules.
 
-Each expected value names its source beside the check. Values marked [D] are arithmetic done for
-the team's reference sheet from the published formula, not published worked examples.
+Each expected value names its source beside the check. Values marked [D] are our own arithmetic
+from the published formula, not published worked examples.
 """
 
 from __future__ import annotations

@@ -10,7 +10,7 @@ import pytest
 
 from workup.context import Flag
 from workup.findings import Status
-from workup.indices import urine_acid
+from workup.indices import ammonium, urine_acid
 from workup.inputs import DrawInputs
 from workup.model import LoadingTest
 
@@ -174,10 +174,10 @@ def test_uog_missing_urine_glucose_states_the_assumption():
 
 def test_ammonium_estimate_is_half_the_uog_and_a_measured_value_wins():
     # NH4 ≈ UOG / 2 (Kamel et al., AJKD 1997).
-    est = urine_acid.urine_ammonium_estimate(draw(uog_urine(200)))
+    est = ammonium.urine_ammonium_estimate(draw(uog_urine(200)))
     assert est.value == pytest.approx(100) and est.extra["measured"] is False
     assert est.status is Status.caution and est.interpretation == "adequate"
-    meas = urine_acid.urine_ammonium_estimate(draw(uog_urine(200, ammonium=30)))
+    meas = ammonium.urine_ammonium_estimate(draw(uog_urine(200, ammonium=30)))
     assert meas.value == pytest.approx(30) and meas.extra["measured"] is True
     assert (meas.status, meas.interpretation) == (Status.ok, "low")
 
@@ -188,15 +188,15 @@ def test_ammonium_estimate_is_half_the_uog_and_a_measured_value_wins():
 )
 def test_ammonium_creatinine_ratio(nh4, reading):
     # Urine creatinine 10 000 µmol/L = 10 mmol/L; cut-offs 3 and 10 (derived, common practice).
-    f = urine_acid.urine_ammonium_creatinine_ratio(draw({"ammonium": nh4, "creatinine": 10000}))
+    f = ammonium.urine_ammonium_creatinine_ratio(draw({"ammonium": nh4, "creatinine": 10000}))
     assert f.value == pytest.approx(nh4 / 10)
     assert (f.status, f.interpretation) == (Status.ok, reading)
 
 
 def test_ammonium_creatinine_needs_creatinine_or_ammonium_inputs():
-    f = urine_acid.urine_ammonium_creatinine_ratio(draw({"ammonium": 20}))
+    f = ammonium.urine_ammonium_creatinine_ratio(draw({"ammonium": 20}))
     assert f.status is Status.needs_input and f.needs == ("urine.creatinine",)
-    g = urine_acid.urine_ammonium_creatinine_ratio(draw({"creatinine": 10000}))
+    g = ammonium.urine_ammonium_creatinine_ratio(draw({"creatinine": 10000}))
     assert g.status is Status.needs_input and "urine.ammonium" in g.needs
 
 

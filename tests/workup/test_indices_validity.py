@@ -108,5 +108,5 @@ def test_tmp_gfr_not_valid_when_reabsorption_is_negative():
 
 
 def test_creatinine_conversion_matches_the_reference_table():
-    # Reference sheet §12: creatinine mg/dL × 88.4 = µmol/L.
+    # Creatinine mg/dL × 88.4 = µmol/L: 10 000 / 113.12 g/mol (IUPAC atomic weights), arithmetic.
     assert creatinine_mg_dl(88.4) == pytest.approx(1.0, abs=1e-3)

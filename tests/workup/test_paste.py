@@ -4,8 +4,8 @@ Every fixture under tests/workup/lab_reports/ is an invented layout (no real lab
 system or patient); its first lines say so. Lines starting with "#" are blanked before parsing so
 that line numbers stay those of the file.
 
-Unit factors are those of workup/analytes.py (molar masses, IUPAC standard atomic weights; the
-common conversions are listed in the team's clinical-methods sheet, section 12). Plausibility
+Unit factors are those of workup/analytes.py (molar masses from the IUPAC standard atomic
+weights; the conversion factors are arithmetic from them). Plausibility
 limits are workup's own generous limits (common practice, from memory), not reference intervals.
 """
 
@@ -170,7 +170,7 @@ def test_values_keep_their_source_lines_and_flags() -> None:
 
 def test_canonical_values_use_the_catalogue_factors() -> None:
     # Creatinine mg/dL x 88.4 = umol/L; glucose mg/dL / 18 = mmol/L (molar masses 113.12 and
-    # 180.16 g/mol, IUPAC; clinical-methods sheet section 12).
+    # 180.16 g/mol from the IUPAC standard atomic weights; arithmetic).
     p = propose(_report("chemistry_tabbed.txt"))
     assert p.values["serum"]["creatinine"].canonical == pytest.approx(0.8 * 88.4, rel=1e-3)
     assert p.values["serum"]["glucose"].canonical == pytest.approx(88 / 18.016, rel=1e-3)

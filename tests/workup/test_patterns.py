@@ -121,7 +121,8 @@ def test_verdicts_follow_the_documented_thresholds(vignette) -> None:
 
 
 def test_blood_ash_distal_rta_table() -> None:
-    # Sheet §13.3, the distal RTA table of a Blood (ASH) article: plasma HCO3 15, K 3.5, urine
+    # The patient column of a distal RTA table published in Blood (American Society of
+    # Hematology; authors not recorded here): plasma HCO3 15, K 3.5, urine
     # pH 7.3, UAG +64, FEHCO3 4%, U–B pCO2 15.8 mmHg → classic distal RTA. The loading draw is
     # built so FEHCO3 = 88 × 1.0 / (22 × 100) = 4.0% and U–B pCO2 = 53.8 − 38 = 15.8.
     baseline = _draw(

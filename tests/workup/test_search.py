@@ -211,3 +211,17 @@ def test_search_against_a_generated_library(tmp_path: Path) -> None:
     assert sorted(m.entry.name for m in low_k) == expected and expected
     assert all(m.draw is not None and m.values[0][1] < 3.0 for m in low_k)
     assert loading and all(m.entry.has_loading for m in loading)
+
+
+def test_a_childs_egfr_is_searchable_by_its_index_id() -> None:
+    # egfr_schwartz is an index id of docs/indices.md (bedside Schwartz, Schwartz et al., JASN
+    # 2009): a condition on it reads the stored value like any other index.
+    child = _entry("child.yaml", label="Child", text="child")
+    draws = {
+        "child.yaml": [
+            DrawValues("clinic", "2026-11-24T10:20", None, {"egfr_schwartz": (48.0, "ok")})
+        ]
+    }
+    found = search([child, *ENTRIES], "egfr_schwartz<60", lambda names: draws)
+    assert [m.entry.name for m in found] == ["child.yaml"]
+    assert found[0].values == (("egfr_schwartz", 48.0, "ok"),)

@@ -74,7 +74,7 @@ def test_every_mass_unit_is_covered():
 @pytest.mark.parametrize(
     ("key", "mg_dl", "canonical"),
     [
-        ("creatinine", 1.0, 88.4),  # Reference sheet §12: creatinine mg/dL × 88.4 = µmol/L
+        ("creatinine", 1.0, 88.4),  # 10 000 / 113.12 g/mol (IUPAC atomic weights) = 88.4
         ("uric_acid", 1.0, 59.48),  # × 59.48
         ("glucose", 18.0, 1.0),  # ÷ 18
         ("phosphate", 1.0, 0.3229),  # × 0.3229

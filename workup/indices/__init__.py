@@ -11,7 +11,16 @@ from __future__ import annotations
 from collections.abc import Callable
 
 from workup.findings import Finding
-from workup.indices import gas, kidney, paediatric, potassium, serum_gaps, tubular, urine_acid
+from workup.indices import (
+    ammonium,
+    gas,
+    kidney,
+    paediatric,
+    potassium,
+    serum_gaps,
+    tubular,
+    urine_acid,
+)
 from workup.inputs import DrawInputs
 
 Calculator = Callable[[DrawInputs], Finding]
@@ -31,8 +40,8 @@ REGISTRY: tuple[Calculator, ...] = (
     urine_acid.urine_ph,
     urine_acid.urine_anion_gap,
     urine_acid.urine_osmolal_gap,
-    urine_acid.urine_ammonium_estimate,
-    urine_acid.urine_ammonium_creatinine_ratio,
+    ammonium.urine_ammonium_estimate,
+    ammonium.urine_ammonium_creatinine_ratio,
     potassium.ttkg,
     potassium.urine_potassium_creatinine_ratio,
     tubular.fe_bicarbonate,

@@ -111,7 +111,39 @@ def ttkg(x: DrawInputs) -> Finding:
     return finding(
         (fid, name, "", TTKG_FORMULA, TTKG_SOURCE), value, j, reading,
         extra={"kalemia": state, "plasma_osmolality": posm, "plasma_osmolality_from": how},
+        borderline=_ttkg_edge(value, state),
     )  # fmt: skip
+
+
+TTKG_BORDERLINE_HYPOKALEMIA = (3.0, 7.0)
+"""TTKG margin read as borderline in hypokalemia: below 3 is renal conservation and above 7 renal
+wasting (Ethier et al., AJKD 1990: non-renal loss 0.9 ± 0.2, hyperaldosteronism 6.7 ± 1.3), so
+the gap between the two cut-offs settles neither."""
+TTKG_BORDERLINE_HYPERKALEMIA = (5.0, 7.0)
+"""TTKG margin read as borderline in hyperkalemia: an adequate response is above 7, and the
+published "inadequate" cut-offs run from below 5 to below 7 (Choi & Ziyadeh, JASN 2008, from
+memory), so only a value under 5 is clearly too low."""
+
+
+def _ttkg_edge(value: float, state: str) -> str | None:
+    """The borderline reason when the TTKG sits between the published cut-offs, else None."""
+    if state == "hypo":
+        low, high = TTKG_BORDERLINE_HYPOKALEMIA
+        why = "below 3 is conservation, above 7 wasting (Ethier et al., AJKD 1990)"
+    elif state == "hyper":
+        low, high = TTKG_BORDERLINE_HYPERKALEMIA
+        why = (
+            "the published cut-offs for too little secretion run from 5 to 7 (Choi & Ziyadeh, "
+            "JASN 2008, from memory)"
+        )
+    else:
+        return None  # no demand to judge against: already a caution
+    if not within(value, low, high):
+        return None
+    return (
+        f"borderline: TTKG {fmt(value)} lies within {fmt(low)}–{fmt(high)} in {state}kalemia; "
+        f"{why}, so it does not settle the renal potassium response"
+    )
 
 
 def urine_potassium_creatinine_ratio(x: DrawInputs) -> Finding:

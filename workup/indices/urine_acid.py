@@ -9,14 +9,13 @@ from __future__ import annotations
 
 from typing import Any
 
-from workup.context import GI_LOSS, Flag
-from workup.findings import Finding, missing
+from workup.context import GI_LOSS, KETOANIONS, SOLVENT, Flag
+from workup.findings import Finding, Status, missing
 from workup.indices._common import (
     Judge,
     finding,
     fmt,
     ketones_present,
-    ratio,
     serum_picture,
     within,
 )
@@ -34,12 +33,6 @@ UAG_SOURCE = (
 )
 UOG_FORMULA = "UOG = measured urine osm − (2 × (Na + K) + urea + glucose), mmol/L"
 UOG_SOURCE = "Kamel et al., AJKD 1997;29:136; cut-offs Berend et al., Kidney Dis 2017, Table 1"
-NH4_FORMULA = "measured urine NH4, else NH4 ≈ UOG / 2"
-NH4_CR_FORMULA = "urine NH4 (mmol/L) / urine creatinine (mmol/L)"
-NH4_CR_SOURCE = (
-    "cut-offs derived, common practice: > 200 mmol/day NH4 expected in chronic acidosis over "
-    "10–15 mmol/day of creatinine"
-)
 
 
 def _acidosis_context(x: DrawInputs, j: Judge, what: str) -> None:
@@ -205,10 +198,26 @@ def urine_anion_gap(x: DrawInputs) -> Finding:
             f"urine pH {fmt(uph, 2)} is above {fmt(s.urine_ph_bicarbonaturia)}: some urine "
             "bicarbonate adds to the gap"
         )
-    if x.has(Flag.ketoacidosis) or ketones_present(x):
+    # Another reason for a high gap (low distal sodium, bicarbonaturia, a high serum gap, a
+    # loading test) is named above; only an unexplained one points to unmeasured anions.
+    explained = j.status is Status.not_valid or (
+        uph is not None and uph > s.urine_ph_bicarbonaturia
+    )
+    if x.context & KETOANIONS or ketones_present(x):
         falsely_positive("ketoanions are excreted with ammonium and are not measured")
-    if x.has(Flag.toluene):
+        explained = True
+    if x.context & SOLVENT:
         falsely_positive("toluene's hippurate is excreted with ammonium and is not measured")
+        explained = True
+    hidden = None if negative or explained else _plenty_of_ammonium(x)
+    if hidden is not None:
+        j.caution(
+            f"{hidden} shows plenty of ammonium, yet this gap is "
+            f"{'positive' if reading == 'positive' else 'near zero'}: ammonium is leaving with "
+            "anions the gap does not count (hippurate after toluene, ketoanions, D-lactate, some "
+            "antibiotics such as penicillins), so the osmolal gap is trusted; ask about solvent "
+            "sniffing and ketosis"
+        )
     if x.has(Flag.lithium):
         j.caution("lithium is an unmeasured urine cation and lowers the gap")
     if "ammonium" in u:
@@ -226,7 +235,23 @@ def urine_anion_gap(x: DrawInputs) -> Finding:
         "in steady state the urine gap tracks diet more than ammonium (Uribarri & Oh, JASN 2021) "
         "and correlates poorly with measured ammonium in CKD (Raphael et al., CJASN 2018)"
     )
-    return finding((fid, name, unit, UAG_FORMULA, UAG_SOURCE), value, j, reading)
+    extra = {"unmeasured_anions": hidden} if hidden is not None else None
+    return finding((fid, name, unit, UAG_FORMULA, UAG_SOURCE), value, j, reading, extra=extra)
+
+
+def _plenty_of_ammonium(x: DrawInputs) -> str | None:
+    """The reading that shows ample ammonium (a measured urine ammonium or a usable urine osmolal
+    gap above their adequate cut-offs), in words; None when neither does. A positive or near-zero
+    urine anion gap beside it means unmeasured urine anions (Kamel et al., AJKD 1997; Berend et
+    al., Kidney Dis 2017, Table 1: toluene, positive UAG with high ammonium)."""
+    s = x.settings
+    nh4 = x.urine.get("ammonium")
+    if nh4 is not None and nh4 > s.urine_ammonium_adequate_above:
+        return f"the measured urine ammonium {fmt(nh4)} mmol/L"
+    gap, _, j = _uog(x)
+    if gap is not None and gap > s.uog_high_above and j.status is not Status.not_valid:
+        return f"the urine osmolal gap {fmt(gap, 0)} mOsm/kg"
+    return None
 
 
 def _uog(x: DrawInputs) -> tuple[float | None, list[str], Judge]:
@@ -318,63 +343,3 @@ def urine_osmolal_gap(x: DrawInputs) -> Finding:
         f"{fmt(s.uog_high_above)} adequate (diarrhea usually above 200)"
     )
     return finding((fid, name, unit, UOG_FORMULA, UOG_SOURCE), gap, j, reading)
-
-
-def _ammonium(x: DrawInputs) -> tuple[float | None, bool, list[str], Judge]:
-    """Urine ammonium (measured, else UOG/2), whether measured, missing inputs, validity."""
-    if "ammonium" in x.urine:
-        j = Judge()
-        j.note("measured urine ammonium")
-        return x.urine["ammonium"], True, [], j
-    gap, need, j = _uog(x)
-    if gap is None:
-        return None, False, ["urine.ammonium", *need], j
-    j.caution(
-        "estimated as half the urine osmolal gap: assumes ammonium travels with monovalent anions "
-        "and agrees only loosely with a measured value; measure it when you can"
-    )
-    return gap / 2, False, [], j
-
-
-def urine_ammonium_estimate(x: DrawInputs) -> Finding:
-    """Urine ammonium: the measured value when given, else half the urine osmolal gap."""
-    fid, name, unit = "urine_ammonium_estimate", "Urine ammonium", "mmol/L"
-    nh4, measured, need, j = _ammonium(x)
-    if nh4 is None:
-        return missing(fid, name, unit, need, NH4_FORMULA, UOG_SOURCE)
-    s = x.settings
-    _acidosis_context(x, j, "urine ammonium")
-    reading = _ammonium_reading(nh4, s.urine_ammonium_low_below, s.urine_ammonium_adequate_above)
-    j.note(
-        f"{fmt(nh4)} mmol/L; a spot concentration depends on urine flow, so the ammonium/"
-        "creatinine ratio reads better"
-    )
-    return finding(
-        (fid, name, unit, NH4_FORMULA, UOG_SOURCE), nh4, j, reading, extra={"measured": measured}
-    )
-
-
-def urine_ammonium_creatinine_ratio(x: DrawInputs) -> Finding:
-    """Urine ammonium over urine creatinine: ammonium excretion corrected for urine flow."""
-    fid, name, unit = "urine_ammonium_creatinine_ratio", "Urine NH4/creatinine", "mmol/mmol"
-    nh4, measured, need, j = _ammonium(x)
-    if "creatinine" not in x.urine:
-        need.append("urine.creatinine")
-    if nh4 is None or need:
-        return missing(fid, name, unit, need, NH4_CR_FORMULA, NH4_CR_SOURCE)
-    s = x.settings
-    value = ratio(nh4, x.urine["creatinine"] / 1000.0)
-    if value is None:
-        j.not_valid("urine creatinine is zero: the ratio cannot be formed")
-        value = 0.0
-    _acidosis_context(x, j, "the ammonium/creatinine ratio")
-    reading = _ammonium_reading(value, s.nh4_creatinine_low_below, s.nh4_creatinine_adequate_above)
-    j.note(
-        f"{fmt(value)} mmol/mmol ({fmt(value * 8.84)} mmol/g); during acidosis below "
-        f"{fmt(s.nh4_creatinine_low_below)} is low, above {fmt(s.nh4_creatinine_adequate_above)} "
-        "adequate (derived cut-offs, common practice)"
-    )
-    return finding(
-        (fid, name, unit, NH4_CR_FORMULA, NH4_CR_SOURCE), value, j, reading,
-        extra={"measured": measured, "ammonium": nh4},
-    )  # fmt: skip

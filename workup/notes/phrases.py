@@ -22,7 +22,7 @@ READING: dict[str, dict[str, str]] = {
     "delta_ratio": {
         "pure_normal_gap": "in keeping with a pure normal-gap acidosis",
         # The 0.4-0.8 band also holds the acidosis of kidney failure (Brandis, Acid-Base
-        # Physiology; clinical-methods sheet section 3), so the words leave both readings open.
+        # Physiology), so the words leave both readings open.
         "mixed_high_and_normal_gap": "in the range of a combined high-gap and normal-gap "
         "acidosis, also seen in the acidosis of kidney failure",
         "high_gap": "in keeping with an uncomplicated high-gap acidosis",
@@ -127,6 +127,10 @@ def reading(f: Finding, brief: bool = False) -> str | None:
     if f.id in ("egfr", "egfr_schwartz"):
         return f.interpretation if brief else f"KDIGO category {f.interpretation}"
     word = plain_word(f)
+    if "unmeasured_anions" in f.extra:
+        # Beside ample ammonium the urine anion gap is not read as low ammonium; the caution
+        # that follows says why.
+        return word.replace("_", " ")
     # A borderline reading keeps its side's phrase and says it sits on the cut-off.
     mark = " (borderline)" if f.borderline else ""
     if brief and word in BRIEF_READING.get(f.id, {}):
@@ -242,7 +246,7 @@ def caution_suffix(
     (its first clause only when ``brief``)."""
     inner = [words] if words else []
     if f.borderline and "borderline" not in (words or ""):
-        inner.append("borderline: on the cut-off")
+        inner.append("borderline: within the margin of its cut-off")
     if f.status is Status.caution:
         why = _gist(_once(caveat(f), seen), brief)
         inner.append(f"read with caution: {why}" if why else "read with caution")

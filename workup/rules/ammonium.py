@@ -8,8 +8,10 @@ from __future__ import annotations
 
 from dataclasses import dataclass
 
+from workup.acidbase.wording import fmt
 from workup.frozen import builder
 from workup.rules.readings import Reading, Readings
+from workup.settings import DEFAULTS, Settings
 
 AMMONIUM_SOURCES: tuple[tuple[str, float], ...] = (
     ("measured_ammonium", 3.0),
@@ -37,6 +39,11 @@ class AmmoniumCall:
     """The reading that drives the call."""
     text: str
     """The call in words, naming readings that agree or were outweighed."""
+    grade: str = "adequate"
+    """How strong the call is: ``low``, ``adequate`` or ``clearly_high`` (the leading reading
+    several times its low cut-off, see :func:`grade`). A clearly high call answers the
+    ``ammonium`` question as ``clearly_high``, whose rows count strongly against the causes
+    that lower ammonium."""
 
 
 _AMMONIUM_WORD = {
@@ -49,12 +56,39 @@ _AMMONIUM_WORD = {
 _new_ammonium_call = builder(AmmoniumCall)
 
 
-def ammonium(rd: Readings) -> AmmoniumCall | None:
+def _clearly_high_cut(index: str | None, s: Settings) -> float | None:
+    """The clearly-high cut-off of the finding a reading rests on; None when it has none (the
+    urine anion gap tracks ammonium too loosely to be graded: Kim et al., AJKD 1996; Raphael
+    et al., CJASN 2018)."""
+    if index == "urine_osmolal_gap":
+        return s.uog_clearly_high_above
+    if index == "urine_ammonium_estimate":
+        return s.urine_ammonium_clearly_high_above
+    if index == "urine_ammonium_creatinine_ratio":
+        return s.nh4_creatinine_clearly_high_above
+    return None
+
+
+def grade(r: Reading, s: Settings) -> str:
+    """``low``, ``adequate`` or ``clearly_high`` for an ammonium reading that makes a call (word
+    ``adequate``, ``negative``, ``low`` or ``positive``). Cut-offs and sources: the settings
+    ``uog_clearly_high_above``, ``urine_ammonium_clearly_high_above`` and
+    ``nh4_creatinine_clearly_high_above``."""
+    if _AMMONIUM_WORD[r.word] == "low":
+        return "low"
+    cut = _clearly_high_cut(r.index, s)
+    if cut is not None and r.value is not None and r.value > cut:
+        return "clearly_high"
+    return "adequate"
+
+
+def ammonium(rd: Readings, s: Settings = DEFAULTS) -> AmmoniumCall | None:
     """Combine measured NH4, the urine osmolal gap and the urine anion gap into one call.
 
     The reading with the highest effective weight (base × reliability) leads; agreeing weaker
-    readings add :data:`CORROBORATION` × their reliability each; disagreeing ones are named as outweighed and add
-    nothing. A not-valid reading never appears here (it was set aside in :func:`gather`).
+    readings add :data:`CORROBORATION` × their reliability each; disagreeing ones are named as
+    outweighed and add nothing. A not-valid reading never appears here (it was set aside in
+    :func:`gather`). The leading reading also sets the call's :func:`grade`.
     """
     cands = []
     for key, base in AMMONIUM_SOURCES:
@@ -68,8 +102,15 @@ def ammonium(rd: Readings) -> AmmoniumCall | None:
     word = _AMMONIUM_WORD[lead.word]
     agree = [c for c in cands[1:] if _AMMONIUM_WORD[c[2].word] == word]
     differ = [c for c in cands[1:] if _AMMONIUM_WORD[c[2].word] != word]
-    level = "adequate (high)" if word == "high" else "low"
+    strength = grade(lead, s)
+    level = {"low": "low", "adequate": "adequate (high)", "clearly_high": "clearly high"}[strength]
     text = f"{lead.text} reads ammonium excretion as {level}"
+    if strength == "clearly_high":
+        text += f" (over {fmt(_clearly_high_cut(lead.index, s) or 0.0)})"
+        if lead.index == "urine_osmolal_gap":
+            text += (
+                "; estimated from the gap, which assumes ammonium travels with monovalent anions"
+            )
     if agree:
         text += "; agreeing: " + ", ".join(c[2].text for c in agree)
     if differ:
@@ -77,4 +118,5 @@ def ammonium(rd: Readings) -> AmmoniumCall | None:
     aside = [v for k, v in rd.set_aside.items() if k in dict(AMMONIUM_SOURCES)]
     if aside:
         text += "; set aside: " + "; ".join(aside)
-    return _new_ammonium_call(word, w + sum(CORROBORATION * c[2].factor for c in agree), lead, text)
+    weight = w + sum(CORROBORATION * c[2].factor for c in agree)
+    return _new_ammonium_call(word, weight, lead, text, strength)

@@ -11,6 +11,16 @@ from dataclasses import dataclass, field
 
 from workup.context import Flag
 
+CLEARLY_HIGH_AGAINST = 4.0
+"""Share of the ammonium call's strength that a clearly high ammonium (several times the low
+cut-off, :func:`workup.rules.ammonium.grade`) counts against each cause that lowers ammonium
+(classic and voltage distal RTA, type 4, CKD), where an adequate one counts 1. With an ok
+osmolal gap and an agreeing urine anion gap (strength 2.5) that is −10, more than all a type 4
+picture gathers otherwise (hyperkalemia, low potassium output, acidified urine, diabetes and a
+RAAS blocker: +9), so such a cause is left unlikely: the acidosis of these causes is a failure
+of ammonium excretion (Kim et al., AJKD 1996; Kamel et al., AJKD 1997; Berend et al., Kidney Dis
+2017, Table 1). The multiple itself is a design choice."""
+
 Weighted = tuple[float, str]
 """(signed base weight: > 0 for, < 0 against; why, in words). Base weights run 1 supportive,
 2 strong, 3 decisive; the judge multiplies them by the answer's scale (a reading's reliability,

@@ -8,7 +8,7 @@ context flag and per (question, answer); :func:`judge` walks the case's answers 
 from __future__ import annotations
 
 from workup.acidbase.wording import fmt
-from workup.context import MEANING, Flag
+from workup.context import MEANING, SAME_AS, Flag
 from workup.rules.ammonium import AmmoniumCall, ammonium
 from workup.rules.cause import NoHistory
 from workup.rules.causes import CAUSES
@@ -68,6 +68,8 @@ def quote_settings(why: str, s: Settings) -> str:
 def _history(t: Tally, flags: frozenset[Flag]) -> None:
     """Context flags: the history a fellow entered (weights in docs/ranking.md)."""
     for flag in sorted(flags, key=str):
+        if SAME_AS.get(flag) in flags:
+            continue  # an older flag set with the one it is read as counts once
         for rule in FLAG_RULES.get(flag, []):
             t.apply(f"history: {MEANING[flag]}", [rule])
     for pid, rule in NO_HISTORY:
@@ -81,7 +83,7 @@ def judge(
     """Apply every rule to the readings; returns the tally and the ammonium call."""
     t = Tally(weights_only=weights_only)
     _history(t, rd.context)
-    nh4 = ammonium(rd)
+    nh4 = ammonium(rd, s)
     for key, r in answers(rd, nh4, s):
         rules = ANSWER_RULES.get(key)
         if not rules:

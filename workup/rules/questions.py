@@ -25,7 +25,7 @@ EGFR_MILD_BELOW = 60
 """eGFR below which kidney function is mildly reduced (common practice)."""
 
 ANSWERS: dict[str, tuple[str, ...]] = {
-    "ammonium": ("high", "low"),
+    "ammonium": ("high", "clearly_high", "low"),
     "urine_ph": ("acidified", "not_acidified", "not_acidified_high_ammonium"),
     "acidification_test": ("acidified", "not_acidified"),
     "potassium": ("hypo", "normal", "hyper"),
@@ -43,7 +43,9 @@ ANSWERS: dict[str, tuple[str, ...]] = {
     "egfr": ("below_ckd_cutoff", "below_45", "below_60", "60_or_more"),
     "bicarbonate": ("severe", "moderate", "mild"),
 }
-"""Question → the answer words a case can give, in the order :func:`answers` asks them. ``severe``
+"""Question → the answer words a case can give, in the order :func:`answers` asks them.
+``clearly_high`` ammonium is a high call whose leading reading is over its clearly-high cut-off
+(:func:`workup.rules.ammonium.grade`). ``severe``
 bicarbonate is below :data:`MILD_ACIDOSIS_HCO3_MIN`, ``moderate`` below
 :data:`TYPE4_USUAL_HCO3_MIN`; ``below_ckd_cutoff`` eGFR is below the settings' ``egfr_ckd_below``."""
 
@@ -75,6 +77,12 @@ QUESTION: dict[str, tuple[tuple[str, ...], str]] = {
 }
 """Question → (reading keys that answer it, what to enter in words)."""
 
+CHILD_EGFR_WORDS = (
+    "eGFR: the child's height (cm) with serum creatinine, for the bedside Schwartz eGFR "
+    "(Schwartz et al., JASN 2009; CKD-EPI does not apply under 18)"
+)
+"""What the ``egfr`` question asks for when a child's eGFR is waiting for a height."""
+
 
 Answer = tuple[tuple[str, str], Reading]
 """((question, answer word), the reading it rests on): the key the cause tables are looked up
@@ -97,11 +105,13 @@ def answers(rd: Readings, nh4: AmmoniumCall | None, s: Settings) -> list[Answer]
     get = rd.by_key.get  # a local: this runs for every case of a library index
     if nh4 is not None:
         # The call stands as one reading whose factor is its strength: the ammonium rows of the
-        # cause tables are shares of that strength.
+        # cause tables are shares of that strength. A clearly high call has rows of its own,
+        # heavier against the causes that lower ammonium.
         lead = nh4.lead
         call = new_reading("ammonium", nh4.word, nh4.weight, lead.draw, lead.index, nh4.weight,
                            nh4.text)  # fmt: skip
-        out.append((("ammonium", nh4.word), call))
+        word = "clearly_high" if nh4.grade == "clearly_high" else nh4.word
+        out.append((("ammonium", word), call))
     r = get("urine_ph")
     if r is not None:
         word = "acidified"
@@ -176,6 +186,8 @@ def missing_for(pid: str, rd: Readings) -> tuple[str, ...]:
         keys, words = QUESTION[q]
         if not have.keys().isdisjoint(keys):  # some reading answers it
             continue
+        if q == "egfr" and "patient.height" in rd.egfr_needs:
+            words = CHILD_EGFR_WORDS
         aside = [rd.set_aside[k] for k in keys if k in rd.set_aside]
         out.append(words + (" — " + "; ".join(aside) if aside else ""))
     return tuple(out)

@@ -71,6 +71,12 @@ class Readings:
     """Labels of the draws with a normal-gap acidosis and no loading test."""
     context: frozenset[Flag] = frozenset()
     """The case's context flags."""
+    egfr_needs: tuple[str, ...] = ()
+    """What the eGFR of the patient's age still needs when no draw gives one (e.g.
+    ``patient.height`` for a child's bedside Schwartz eGFR), so the question can ask for it."""
+    unmeasured_anions: str | None = None
+    """When a positive or near-zero urine anion gap sits beside ample ammonium in an acidosis
+    draw (anions the gap does not count), the two readings in words; else None."""
 
     def get(self, key: str) -> Reading | None:
         """The reading of ``key``, if any."""
@@ -167,12 +173,21 @@ def gather(draws: Iterable[DrawResult], context: Iterable[Flag], s: Settings) ->
             if "ph" in x.urine:
                 acid_test_ph.append((x.urine["ph"], r.label))
             continue
-        _offer(out, "egfr", found.get(egfr_id(x.age)), r.label)
+        kidney = found.get(egfr_id(x.age))
+        _offer(out, "egfr", kidney, r.label)
+        if kidney is not None and kidney.value is None and not out.egfr_needs:
+            out.egfr_needs = kidney.needs
         if not _has_normal_gap_acidosis(r):
             continue
         out.acidosis_draws.append(r.label)
         for key, fid in STEADY_INDICES.items():
             _offer(out, key, found.get(fid), r.label)
+        uag = found.get("urine_anion_gap")
+        if uag is not None and uag.value is not None and "unmeasured_anions" in uag.extra:
+            out.unmeasured_anions = (
+                f"urine anion gap {_num(uag)} mmol/L ({r.label}) beside "
+                f"{uag.extra['unmeasured_anions'].removeprefix('the ')}"
+            )
         if "ammonium" in x.urine:
             # A measured ammonium is the reference; the ratio to creatinine is preferred because
             # it does not depend on how concentrated the urine is.

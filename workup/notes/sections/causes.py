@@ -23,6 +23,8 @@ def causes_section(c: Context) -> Section:
     for note in c.a.ranking_notes:
         if c.brief and note.startswith("Ammonium:"):
             continue  # the daily note's renal line already says which ammonium reading counts
+        if c.brief and note.startswith("Unmeasured urine anions:"):
+            continue  # the daily note's ammonium line already gives the urine anion gap's caveat
         if c.brief and note.startswith("No draw shows") and "is judged" in note:
             # The daily note keeps the conclusion; each test draw's reason is in the full note.
             note = note.partition(": ")[0] + "."

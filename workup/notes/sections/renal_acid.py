@@ -70,6 +70,8 @@ def _ammonium_summary(c: Context) -> list[str]:
         f = c.finding(id)
         if f is None or not ph.stated(f) or ph.plain_word(f) not in table:
             continue
+        if "unmeasured_anions" in f.extra:
+            continue  # a gap beside ample ammonium says nothing about it (see its caution)
         directions[id] = table[ph.plain_word(f)]
         if id == "urine_ammonium_estimate" and f.extra.get("measured"):
             measured = True

@@ -15,6 +15,7 @@ CAUSE = Cause(
     questions=("ammonium", "urine_ph"),
     answers={
         ("ammonium", "high"): (0.5, "a normal renal response"),
+        ("ammonium", "clearly_high"): (0.5, "a normal renal response"),
         ("ammonium", "low"): (-0.5, "a chloride load alone leaves ammonium excretion intact"),
         ("urine_ph", "acidified"): (0.5, "a normal renal response"),
     },

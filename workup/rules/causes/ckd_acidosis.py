@@ -7,7 +7,7 @@ One row per answer that bears on the cause; see :class:`workup.rules.cause.Cause
 from __future__ import annotations
 
 from workup.context import Flag
-from workup.rules.cause import Cause
+from workup.rules.cause import CLEARLY_HIGH_AGAINST, Cause
 
 CAUSE = Cause(
     id="ckd_acidosis",
@@ -15,6 +15,7 @@ CAUSE = Cause(
     questions=("egfr", "ammonium"),
     answers={
         ("ammonium", "high"): (-1.0, "CKD acidosis is a failure of ammonium excretion"),
+        ("ammonium", "clearly_high"): (-CLEARLY_HIGH_AGAINST, "the nephrons excrete plenty of acid, so their loss is not the cause (UAG +24.7 in chronic renal failure, Kim et al., AJKD 1996)"),
         ("ammonium", "low"): (1.0, "reduced nephron mass lowers ammonium"),
         ("urine_ph", "not_acidified"): (-0.5, "CKD usually acidifies the urine"),
         ("urine_ph", "not_acidified_high_ammonium"): (-0.5, "CKD usually acidifies the urine"),

@@ -7,7 +7,7 @@ One row per answer that bears on the cause; see :class:`workup.rules.cause.Cause
 from __future__ import annotations
 
 from workup.context import Flag
-from workup.rules.cause import Cause
+from workup.rules.cause import CLEARLY_HIGH_AGAINST, Cause
 from workup.rules.readings import FURO_ACIDIFIED_BELOW
 
 CAUSE = Cause(
@@ -16,6 +16,7 @@ CAUSE = Cause(
     questions=("urine_ph", "ammonium", "potassium", "urine_blood_pco2", "fe_bicarbonate"),
     answers={
         ("ammonium", "high"): (-1.0, "low ammonium is the defect of distal RTA"),
+        ("ammonium", "clearly_high"): (-CLEARLY_HIGH_AGAINST, "the kidney is excreting acid, which classic distal RTA cannot (UOG 129.7 ± 17 in distal RTA, Kim et al., AJKD 1996)"),
         ("ammonium", "low"): (1.0, "the renal defect lowers ammonium"),
         ("urine_ph", "not_acidified"): (2.0, "distal H+ secretion fails"),
         ("urine_ph", "not_acidified_high_ammonium"): (0.5, "but with high ammonium a urine pH above 5.5 is expected"),
@@ -36,5 +37,6 @@ CAUSE = Cause(
         Flag.autoimmune_disease: (1.5, "Sjögren's and lupus cause classic distal RTA"),
         Flag.lithium: (1.0, "lithium impairs distal acidification"),
         Flag.toluene: (1.0, "toluene gives a distal-RTA-like picture"),
+        Flag.solvent_inhalation: (1.0, "toluene gives a distal-RTA-like picture"),
     },
 )  # fmt: skip

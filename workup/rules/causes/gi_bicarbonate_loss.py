@@ -14,6 +14,7 @@ CAUSE = Cause(
     questions=("ammonium", "potassium", "k_response"),
     answers={
         ("ammonium", "high"): (1.0, "the kidney responds to the acidosis, as in gut loss"),
+        ("ammonium", "clearly_high"): (1.0, "the kidney responds to the acidosis, as in gut loss"),
         ("ammonium", "low"): (-1.0, "gut loss drives ammonium excretion up"),
         ("urine_ph", "acidified"): (0.5, "fits gut loss"),
         ("potassium", "hypo"): (1.0, "stool potassium loss"),

@@ -7,7 +7,7 @@ One row per answer that bears on the cause; see :class:`workup.rules.cause.Cause
 from __future__ import annotations
 
 from workup.context import Flag
-from workup.rules.cause import Cause
+from workup.rules.cause import CLEARLY_HIGH_AGAINST, Cause
 from workup.rules.readings import FURO_ACIDIFIED_BELOW
 
 CAUSE = Cause(
@@ -16,6 +16,7 @@ CAUSE = Cause(
     questions=("urine_ph", "ammonium", "potassium", "urine_blood_pco2"),
     answers={
         ("ammonium", "high"): (-1.0, "ammonium is low in a voltage defect"),
+        ("ammonium", "clearly_high"): (-CLEARLY_HIGH_AGAINST, "the kidney is excreting acid, which a voltage defect cannot (Batlle et al., NEJM 1988; Berend et al., Kidney Dis 2017, Table 1)"),
         ("ammonium", "low"): (1.0, "the renal defect lowers ammonium"),
         ("urine_ph", "not_acidified"): (2.0, "distal H+ secretion fails"),
         ("urine_ph", "not_acidified_high_ammonium"): (0.5, "but with high ammonium a urine pH above 5.5 is expected"),

@@ -7,7 +7,7 @@ One row per answer that bears on the cause; see :class:`workup.rules.cause.Cause
 from __future__ import annotations
 
 from workup.context import Flag
-from workup.rules.cause import Cause, NoHistory
+from workup.rules.cause import CLEARLY_HIGH_AGAINST, Cause, NoHistory
 
 CAUSE = Cause(
     id="hypoaldosteronism",
@@ -15,6 +15,7 @@ CAUSE = Cause(
     questions=("potassium", "k_response", "urine_ph", "ammonium", "egfr"),
     answers={
         ("ammonium", "high"): (-1.0, "ammonium is low in type 4"),
+        ("ammonium", "clearly_high"): (-CLEARLY_HIGH_AGAINST, "ammoniagenesis is not suppressed, so low aldosterone is not what lowers the bicarbonate (UOG below 150 in type 4, Berend et al., Kidney Dis 2017, Table 1)"),
         ("ammonium", "low"): (1.0, "hyperkalemia and low aldosterone lower ammoniagenesis"),
         ("urine_ph", "not_acidified"): (-2.5, "type 4 acidifies the urine below 5.5"),
         ("urine_ph", "not_acidified_high_ammonium"): (-2.5, "type 4 acidifies the urine below 5.5"),

@@ -15,6 +15,7 @@ CAUSE = Cause(
     questions=("fe_bicarbonate", "phosphate", "glucosuria", "fe_urate", "urine_ph"),
     answers={
         ("ammonium", "high"): (0.5, "distal acidification is intact in proximal RTA"),
+        ("ammonium", "clearly_high"): (0.5, "distal acidification is intact in proximal RTA"),
         ("ammonium", "low"): (-0.5, "ammonium is normal in proximal RTA"),
         ("urine_ph", "not_acidified"): (-1.0, "in the steady state proximal RTA acidifies the urine"),
         ("urine_ph", "not_acidified_high_ammonium"): (-1.0, "in the steady state proximal RTA acidifies the urine"),
