@@ -98,7 +98,8 @@ async def test_enter_in_the_search_line_searches_and_does_not_open(folder: Path)
         await pilot.press("enter")
         await pilot.pause()
         assert app.opened == []
-        assert _names(screen) == ["proximal-rta-fanconi.yaml"]
+        # The toluene-like demo ranks proximal RTA first too (possible, nothing likely).
+        assert _names(screen) == ["proximal-rta-fanconi.yaml", "toluene-like.yaml"]
         assert screen.focused is screen.query_one(DataTable)
         await pilot.press("enter")
         await pilot.pause()
