@@ -357,3 +357,15 @@ def test_proximal_case_suggests_the_cause_screen_and_no_dilutional_acidosis() ->
     assert a.next_tests[0].id == "proximal_cause_screen"
     saline = next(p for p in a.patterns if p.id == "chloride_load")
     assert saline.verdict.value == "unlikely"
+
+
+@pytest.mark.parametrize("k", [2.8, 3.1, 3.3])
+def test_hypokalemia_makes_a_voltage_defect_unlikely(k) -> None:
+    # Hyperkalemic (voltage) distal RTA is defined by hyperkalemia with an alkaline urine and
+    # low ammonium (Batlle et al., NEJM 1981 and 1988, from memory); a low potassium with the
+    # same urine points to classic distal RTA instead, so the voltage defect must not stay
+    # "possible" on the urine findings it shares with classic distal RTA.
+    a = assess(_case([_draw("baseline", _serum(k), {**LOW_NH4_URINE, "ph": 6.9})]))
+    calls = {c.id: c for c in a.patterns}
+    assert calls["hyperkalemic_distal_rta"].verdict is Verdict.unlikely, calls
+    assert a.leading is not None and a.leading.id == "distal_rta"

@@ -23,7 +23,7 @@ CAUSE = Cause(
         ("urine_ph", "acidified"): (-2.0, "distal H+ secretion works"),
         ("acidification_test", "acidified"): (-2.0, "distal acidification is intact"),
         ("acidification_test", "not_acidified"): (1.0, f"never below {FURO_ACIDIFIED_BELOW}"),
-        ("potassium", "hypo"): (-2.5, "it is defined by hyperkalemia"),
+        ("potassium", "hypo"): (-6.0, "it is defined by hyperkalemia: a low potassium excludes it"),
         ("potassium", "normal"): (-2.5, "it is defined by hyperkalemia"),
         ("potassium", "hyper"): (2.0, "fits a voltage defect"),
         ("k_response", "too_low_for_hyperkalemia"): (1.5, "too little potassium secretion"),
