@@ -139,6 +139,15 @@ def test_every_note_ends_with_the_caution() -> None:
         assert _flat(note).endswith(CAUTION_TEXT), (stem, style, fmt)
 
 
+def test_every_note_says_how_validity_is_marked() -> None:
+    # A value stated bare is a valid one (caution values carry their caveat, not-valid ones lose
+    # their number); the note must say so, or a reader cannot tell a bare number's status.
+    from workup.notes.sections.closing import VALIDITY_LEGEND
+
+    for stem, style, fmt, _case, note in _all_notes():
+        assert f"{VALIDITY_LEGEND} {CAUTION_TEXT}" in _flat(note), (stem, style, fmt)
+
+
 def test_text_notes_are_80_columns_ascii_without_trailing_spaces() -> None:
     for stem, style, fmt, _case, note in _all_notes():
         if fmt != "text":

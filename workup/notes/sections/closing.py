@@ -45,6 +45,10 @@ def caveats_section(c: Context) -> Section:
     return s
 
 
+VALIDITY_LEGEND = "Values without a caveat met their validity conditions."
+"""How the note marks validity, so that no number reads without its status."""
+
+
 def caution_section(c: Context) -> Section:
-    """The standing caution that closes every note."""
-    return Section("caution", "Caution", [CAUTION_TEXT])
+    """The standing caution that closes every note, with how validity is marked."""
+    return Section("caution", "Caution", [f"{VALIDITY_LEGEND} {CAUTION_TEXT}"])
