@@ -49,6 +49,8 @@ HELP_KEYS = [
     ("Ctrl+N", "new draw, time-stamped now"),
     ("Ctrl+PgUp/PgDn", "previous / next draw"),
     ("s", "(findings) show the formula and source of the selected index"),
+    ("c", "(findings) list the compensation rules that do not apply, or fold them"),
+    ("Enter", "(findings) reasons and evidence in full, or one line each"),
     ("Ctrl+S", "save;  Save as, duplicate, delete draw: Ctrl+P"),
     ("F7", "draft the note (copy or write to a file)"),
     ("F8 / F9", "paste a lab report / trends over the draws"),
