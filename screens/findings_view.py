@@ -72,9 +72,7 @@ def finding_detail(f: Finding, show_source: bool, compact: bool = False) -> Grou
     out: list = [head]
     if compact:
         more = f"{len(f.reasons)} reason(s)" + (", missing inputs" if f.needs else "")
-        out.append(
-            _item(f"Enter: {more} and the disorders' evidence   s: formula, source", 2, "dim")
-        )
+        out.append(_item(f"Enter: {more}   s: formula and source", 2, "dim"))
         return Group(*out)
     out += [_item(f"- {r}", 2) for r in f.reasons]
     if f.needs:
@@ -104,7 +102,8 @@ GROUP_KEY = "group:compensation"
 
 TALL_ROWS = 26
 """From this many rows up, the findings view shows evidence and reasons in full by default;
-below it (an 80 x 24 terminal) the index table keeps the room and Enter shows them."""
+below it (an 80 x 24 terminal) the index table keeps the room: Enter shows the selected index's
+reasons, e the disorders' evidence."""
 
 
 def not_applicable(a: Assessment) -> list[Finding]:
@@ -147,11 +146,12 @@ def group_detail(hidden: list[Finding], compact: bool) -> Group:
 
 class IndexTable(DataTable):
     """The indices, one row each: s toggles formula and source of the selected one, c the
-    compensation rules that do not apply, Enter the full reasons."""
+    compensation rules that do not apply, e the disorders' evidence, Enter the full reasons."""
 
     BINDINGS = [
         Binding("s", "toggle_source", "Formula/source", show=False),
         Binding("c", "toggle_rules", "Rules", show=False),
+        Binding("e", "toggle_evidence", "Evidence", show=False),
     ]
 
     def _view(self) -> FindingsView:
@@ -162,6 +162,12 @@ class IndexTable(DataTable):
         view = self._view()
         view.show_source = not view.show_source
         view.refresh_detail()
+
+    def action_toggle_evidence(self) -> None:
+        """Show or hide the evidence under each acid-base disorder."""
+        view = self._view()
+        view.show_evidence = not view.evidence
+        view.show(view.assessment, view._error, view.with_draw_line)
 
     def action_toggle_rules(self) -> None:
         """Show the compensation rules that do not apply as rows, or fold them into one."""
@@ -180,11 +186,13 @@ class FindingsView(Vertical):
         self.show_all_rules = False
         """Compensation rules that do not apply: as rows (True) or one folded row (False)."""
         self.full_detail: bool | None = None
-        """Evidence and reasons in full (True), one line (False), or by the height (None)."""
+        """The selected index's reasons in full (True), one line (False), or by the height (None)."""
+        self.show_evidence: bool | None = None
+        """The disorders' evidence shown (True), hidden (False), or by the height (None)."""
         self.with_draw_line = True
         self._ids: list[str] = []
         self._width = 0
-        self._compact = True
+        self._compact = (True, False)
         self._error: str | None = None
 
     def compose(self) -> ComposeResult:
@@ -196,11 +204,19 @@ class FindingsView(Vertical):
         self._columns(self.size.width or 80, [])
 
     @property
-    def compact(self) -> bool:
-        """True when evidence and reasons show in one line (Enter shows them in full)."""
-        if self.full_detail is not None:
-            return not self.full_detail
+    def short(self) -> bool:
+        """True on a short terminal, where the table keeps the room by default."""
         return (self.size.height or 0) < TALL_ROWS
+
+    @property
+    def compact(self) -> bool:
+        """True when the selected index shows in one line (Enter shows its reasons)."""
+        return self.short if self.full_detail is None else not self.full_detail
+
+    @property
+    def evidence(self) -> bool:
+        """True when the disorders show their evidence (e toggles it)."""
+        return not self.short if self.show_evidence is None else self.show_evidence
 
     def _columns(self, width: int, rows: list[tuple]) -> None:
         # Value and status keep their full width (the widest cell shown); the name column is as
@@ -222,7 +238,7 @@ class FindingsView(Vertical):
     def on_resize(self) -> None:
         if not self.size.width:
             return
-        if self.size.width != self._width or self.compact != self._compact:
+        if self.size.width != self._width or (self.compact, self.evidence) != self._compact:
             self.show(self.assessment, self._error, self.with_draw_line)
 
     def _rows(self, a: Assessment) -> list[tuple]:
@@ -254,7 +270,7 @@ class FindingsView(Vertical):
         self.assessment = a
         self._error = error
         self.with_draw_line = with_draw_line
-        self._compact = self.compact
+        self._compact = (self.compact, self.evidence)
         disorders = self.query_one("#disorders", Static)
         table = self.query_one(IndexTable)
         current = self._ids[table.cursor_row] if 0 <= table.cursor_row < len(self._ids) else None
@@ -265,7 +281,7 @@ class FindingsView(Vertical):
             disorders.update(error or "No assessment yet.")
             self.refresh_detail()
             return
-        disorders.update(disorders_text(a, with_draw_line, evidence=not self._compact))
+        disorders.update(disorders_text(a, with_draw_line, evidence=self.evidence))
         rows = self._rows(a)
         self._columns(self.size.width or 80, [r[1:] for r in rows])
         self._ids = [r[0] for r in rows]
@@ -296,22 +312,22 @@ class FindingsView(Vertical):
         """Redraw the detail of the selected finding."""
         detail = self.query_one("#index-detail", Static)
         if self.assessment is not None and self._on_group_row():
-            detail.update(group_detail(not_applicable(self.assessment), self._compact))
+            detail.update(group_detail(not_applicable(self.assessment), self.compact))
             return
         f = self.selected()
         if f is None:
             detail.update("Legend: " + LEGEND)
         else:
-            detail.update(finding_detail(f, self.show_source, self._compact))
+            detail.update(finding_detail(f, self.show_source, self.compact))
 
     def on_data_table_row_highlighted(self, event: DataTable.RowHighlighted) -> None:
         self.refresh_detail()
 
     def on_data_table_row_selected(self, event: DataTable.RowSelected) -> None:
-        # Enter: the reasons and evidence in full, or back to one line.
+        # Enter: the selected index's reasons in full, or back to its one line.
         event.stop()
-        self.full_detail = self._compact
-        self.show(self.assessment, self._error, self.with_draw_line)
+        self.full_detail = self.compact
+        self.refresh_detail()
 
 
 _KEYS = ("name", "value", "status", "reading")
@@ -326,7 +342,7 @@ def disorders_text(a: Assessment, with_draw_line: bool = True, evidence: bool = 
     if not a.disorders:
         out.append(Text("Acid-base disorders: none identified from the values entered."))
         return Group(*out)
-    out.append(Text("Acid-base disorders:"))
+    out.append(Text("Acid-base disorders:" if evidence else "Acid-base disorders (e: evidence):"))
     for d in a.disorders:
         role = "primary" if d.primary else "added"
         bits = [role]

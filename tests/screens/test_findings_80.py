@@ -133,3 +133,24 @@ async def test_enter_shows_the_reasons_in_full_and_again_folds_them(demo: Path) 
         await pilot.press("enter")
         await pilot.pause()
         assert reason not in shown()
+
+
+async def test_e_shows_the_disorders_evidence_at_80_by_24(demo: Path) -> None:
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        view = app.screen.query_one(FindingsView)
+        assert view.assessment is not None
+        evidence = [e.text for d in view.assessment.disorders for e in d.evidence]
+        assert evidence
+
+        def shown() -> str:
+            return " ".join(" ".join(screen_rows(app)).split())
+
+        # Folded at 24 rows, so the table keeps the room; the heading names the key.
+        assert "Acid-base disorders (e: evidence):" in shown()
+        assert not any(text in shown() for text in evidence)
+        await pilot.press("e")
+        await pilot.pause()
+        assert all(text in shown() for text in evidence), evidence
+        assert any(key == "e" and "evidence" in what for key, what in HELP_KEYS)
