@@ -1,4 +1,5 @@
-"""Showing an assessment: the indices with their status, the disorders, the ranked causes.
+"""Showing an assessment: the indices with their status and the disorders (the ranked causes:
+screens/case/causes_pane.py).
 
 Every number shown here is one the core computed, printed with the core's status word and mark
 (``workup.findings.STATUS_WORD``/``STATUS_MARK``) so that status never rests on colour alone.
@@ -11,7 +12,7 @@ from rich.padding import Padding
 from rich.text import Text
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.containers import Vertical, VerticalScroll
+from textual.containers import Vertical
 from textual.widgets import DataTable, Static
 
 from workup.assess import Assessment
@@ -46,7 +47,7 @@ def status_text(f: Finding) -> Text:
     return status_word(f.status)
 
 
-def _item(text: str, indent: int, style: str = "") -> Padding:
+def item(text: str, indent: int, style: str = "") -> Padding:
     """One line of text whose wrapped lines keep the indent (hanging, readable lists)."""
     return Padding(Text(text, style=style), (0, 0, 0, indent))
 
@@ -72,16 +73,16 @@ def finding_detail(f: Finding, show_source: bool, compact: bool = False) -> Grou
     out: list = [head]
     if compact:
         more = f"{len(f.reasons)} reason(s)" + (", missing inputs" if f.needs else "")
-        out.append(_item(f"Enter: {more}   s: formula and source", 2, "dim"))
+        out.append(item(f"Enter: {more}   s: formula and source", 2, "dim"))
         return Group(*out)
-    out += [_item(f"- {r}", 2) for r in f.reasons]
+    out += [item(f"- {r}", 2) for r in f.reasons]
     if f.needs:
-        out.append(_item("missing: " + ", ".join(f.needs), 2))
+        out.append(item("missing: " + ", ".join(f.needs), 2))
     if show_source:
-        out.append(_item(f"formula: {f.formula or 'not given'}", 2))
-        out.append(_item(f"source: {f.source or 'not given'}", 2))
+        out.append(item(f"formula: {f.formula or 'not given'}", 2))
+        out.append(item(f"source: {f.source or 'not given'}", 2))
     else:
-        out.append(_item("(s: formula and source)", 2, "dim"))
+        out.append(item("(s: formula and source)", 2, "dim"))
     return Group(*out)
 
 
@@ -135,12 +136,12 @@ def group_detail(hidden: list[Finding], compact: bool) -> Group:
     head.append_text(status_word(Status.not_valid))
     head.append("]")
     if compact:
-        return Group(head, _item("c: show them as rows   Enter: why each does not apply", 2, "dim"))
+        return Group(head, item("c: show them as rows   Enter: why each does not apply", 2, "dim"))
     out: list = [head]
     out += [
-        _item(f"- {f.name}: {f.reasons[0] if f.reasons else 'no reason given'}", 2) for f in hidden
+        item(f"- {f.name}: {f.reasons[0] if f.reasons else 'no reason given'}", 2) for f in hidden
     ]
-    out.append(_item("(c: show them as rows)", 2, "dim"))
+    out.append(item("(c: show them as rows)", 2, "dim"))
     return Group(*out)
 
 
@@ -350,47 +351,7 @@ def disorders_text(a: Assessment, with_draw_line: bool = True, evidence: bool = 
             bits.append(d.detail)
         if d.compensation:
             bits.append(f"compensation {d.compensation}")
-        out.append(_item(f"> {d.name} ({', '.join(bits)})", 2, "bold"))
+        out.append(item(f"> {d.name} ({', '.join(bits)})", 2, "bold"))
         if evidence:
-            out += [_item(f"- {e.text}", 6) for e in d.evidence]
+            out += [item(f"- {e.text}", 6) for e in d.evidence]
     return Group(*out)
-
-
-def causes_text(a: Assessment | None, error: str | None = None) -> Group:
-    """The ranked causes of a normal-gap acidosis with for/against/missing, then next tests."""
-    if a is None:
-        return Group(Text(error or "No assessment yet."))
-    out: list = [Text("Causes of a normal-gap acidosis (judged on every draw)", style="bold")]
-    out += [_item(note, 2, "italic") for note in a.ranking_notes]
-    if not a.patterns:
-        out.append(_item("No cause ranked.", 2))
-    for p in a.patterns:
-        head = Text()
-        head.append(f"{p.verdict.value.upper():<9}", style="bold reverse")
-        head.append(f" {p.name}", style="bold")
-        out += [Text(""), head]
-        out += [_item(f"+ for: {e.text}", 4) for e in p.support]
-        out += [_item(f"- against: {e.text}", 4) for e in p.against]
-        if p.missing:
-            out.append(_item("? missing: " + ", ".join(p.missing), 4))
-    out += [Text(""), Text("Suggested next tests", style="bold")]
-    if not a.next_tests:
-        out.append(_item("none suggested", 2))
-    for t in a.next_tests:
-        out.append(_item(f"* {t.text}", 2))
-        if t.why:
-            out.append(_item(t.why, 6, "italic"))
-    return Group(*out)
-
-
-class CausesView(VerticalScroll):
-    """The pattern ranking, scrollable by keyboard."""
-
-    can_focus = True
-
-    def compose(self) -> ComposeResult:
-        yield Static("", id="causes-text")
-
-    def show(self, a: Assessment | None, error: str | None = None) -> None:
-        """Show the ranking of assessment ``a``."""
-        self.query_one("#causes-text", Static).update(causes_text(a, error))
