@@ -84,9 +84,9 @@ async def test_rules_that_do_not_apply_fold_into_one_row_and_c_lists_them(demo: 
         assert a is not None
         keys = [k.value for k in table.rows]
         # Baseline draw: a normal-gap metabolic acidosis, so of the compensation rules only
-        # Winters' formula applies (Albert, Dell & Winters, Ann Intern Med 1967); the rules for
-        # metabolic alkalosis and the respiratory disorders are for other primary disorders
-        # (common practice). The core says so in each rule's reasons.
+        # Winters' formula applies (Albert, Dell & Winters, Ann Intern Med 1967, from memory);
+        # the rules for metabolic alkalosis and the respiratory disorders are for other primary
+        # disorders (common practice). The core says so in each rule's reasons.
         folded = [fid for fid in COMPENSATION_RULES if fid not in keys]
         assert "expected_pco2" in keys
         assert len(folded) == 5
@@ -154,3 +154,28 @@ async def test_e_shows_the_disorders_evidence_at_80_by_24(demo: Path) -> None:
         await pilot.pause()
         assert all(text in shown() for text in evidence), evidence
         assert any(key == "e" and "evidence" in what for key, what in HELP_KEYS)
+
+
+def test_folded_rules_are_those_that_do_not_apply_in_every_demo_draw(cases_dir: Path) -> None:
+    # The folded row says "not applicable": it may only hold rules the core marked NOT VALID
+    # because the draw is not the disorder the rule is for. Each compensation rule is defined for
+    # one primary disorder (common practice; Berend, de Vries & Gans, N Engl J Med 2014,
+    # from memory), and the core puts that reason first among a NOT VALID finding's reasons.
+    from screens.findings_view import not_applicable
+    from workup.assess import assess
+    from workup.caseio import load_case
+
+    seen = 0
+    for path in sorted(cases_dir.glob("*.yaml")):
+        case = load_case(path)
+        for draw in case.draws:
+            for f in not_applicable(assess(case, draw.label)):
+                seen += 1
+                first = f.reasons[0]
+                assert "applies only to" in first or "more likely compensation" in first, (
+                    path.name,
+                    draw.label,
+                    f.id,
+                    first,
+                )
+    assert seen >= 20
