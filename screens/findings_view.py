@@ -219,11 +219,11 @@ class FindingsView(Vertical):
         """True when the disorders show their evidence (e toggles it)."""
         return not self.short if self.show_evidence is None else self.show_evidence
 
-    def _columns(self, width: int, rows: list[tuple]) -> None:
+    def _columns(self, width: int, rows: list[tuple]) -> int:
+        """Lay out the columns for ``rows`` at ``width``; the reading column's width."""
         # Value and status keep their full width (the widest cell shown); the name column is as
         # wide as the widest short name; the reading takes the rest and wraps when longer.
         table = self.query_one(IndexTable)
-        table.clear(columns=True)
         widths = [max([len(str(r[i])) for r in rows] + [len(h)]) for i, h in enumerate(_HEADS)]
         name = min(widths[0], SHORT_NAME_WIDTH + 4)
         value = min(widths[1], 18)
@@ -231,10 +231,14 @@ class FindingsView(Vertical):
         # 2 columns for the scrollbar, 2 of padding per column.
         reading = max(width - 2 - 2 * len(_HEADS) - name - value - status, 12)
         self._width = width
-        for (key, head), w in zip(
-            zip(_KEYS, _HEADS, strict=True), (name, value, status, reading), strict=True
-        ):
+        layout = (name, value, status, reading)
+        if tuple(c.width for c in table.ordered_columns) == layout:
+            table.clear()  # same columns: keep them, only the rows change
+            return reading
+        table.clear(columns=True)
+        for (key, head), w in zip(zip(_KEYS, _HEADS, strict=True), layout, strict=True):
             table.add_column(head, key=key, width=w)
+        return reading
 
     def on_resize(self) -> None:
         if not self.size.width:
@@ -284,10 +288,10 @@ class FindingsView(Vertical):
             return
         disorders.update(disorders_text(a, with_draw_line, evidence=self.evidence))
         rows = self._rows(a)
-        self._columns(self.size.width or 80, [r[1:] for r in rows])
+        reading = self._columns(self.size.width or 80, [r[1:] for r in rows])
         self._ids = [r[0] for r in rows]
         for key, *cells in rows:
-            table.add_row(*cells, key=key, height=None)
+            table.add_row(*cells, key=key, height=wrapped_lines(str(cells[3]), reading))
         if self._ids:
             # The cursor stays on the same index (or the folded row) when rows come and go.
             target = self._ids.index(current) if current in self._ids else row
@@ -329,6 +333,17 @@ class FindingsView(Vertical):
         event.stop()
         self.full_detail = self.compact
         self.refresh_detail()
+
+
+def wrapped_lines(text: str, width: int) -> int:
+    """How many lines ``text`` takes wrapped by whole words at ``width`` (at least one)."""
+    lines, used = 1, 0
+    for word in text.split():
+        if used and used + 1 + len(word) > width:
+            lines, used = lines + 1, len(word)
+        else:
+            used += len(word) + (1 if used else 0)
+    return lines
 
 
 _KEYS = ("name", "value", "status", "reading")
