@@ -340,9 +340,13 @@ def wrapped_lines(text: str, width: int) -> int:
     lines, used = 1, 0
     for word in text.split():
         if used and used + 1 + len(word) > width:
-            lines, used = lines + 1, len(word)
-        else:
-            used += len(word) + (1 if used else 0)
+            lines, used = lines + 1, 0
+        if len(word) > width:  # a word wider than the column is folded over several lines
+            extra, used = divmod(len(word) + used, width)
+            lines += extra - (used == 0)
+            used = used or width
+            continue
+        used += len(word) + (1 if used else 0)
     return lines
 
 

@@ -179,3 +179,28 @@ def test_folded_rules_are_those_that_do_not_apply_in_every_demo_draw(cases_dir: 
                     first,
                 )
     assert seen >= 20
+
+
+def test_row_heights_match_how_the_reading_wraps() -> None:
+    # The table's row height is counted, not measured: it must agree with Rich's own wrapping,
+    # or a reading would be cut (too few lines) or leave gaps (too many).
+    from rich.console import Console
+    from rich.text import Text
+
+    from screens.findings_view import wrapped_lines
+
+    console = Console(width=200)
+    samples = [
+        "",
+        "low",
+        "acidified (borderline)",
+        "respiratory alkalosis added",
+        "metabolic acidosis added",
+        "mixed high and normal gap",
+        "indeterminate",
+        "inappropriately high: renal K loss",
+    ]
+    for text in samples:
+        for width in range(8, 30):
+            expected = len(Text(text).wrap(console, width)) or 1
+            assert wrapped_lines(text, width) == expected, (text, width)
