@@ -10,6 +10,7 @@ from textual.binding import Binding
 from textual.screen import Screen
 from textual.widgets import Footer, Static, TextArea
 
+from screens.case.titlebar import Field, FittedLine, word_prefixes
 from workup.assess import Assessment
 from workup.model import Case
 
@@ -31,13 +32,25 @@ def draft(assessment: Assessment, case: Case) -> str:
     return draft_note(assessment, case, style="brief", fmt="text")
 
 
+def note_title(label: str) -> FittedLine:
+    """The note screen's title line: the case label, then where edits go (shortened first)."""
+    return FittedLine(
+        [
+            Field(tuple(f"Note: {w}" for w in word_prefixes(label)), 2),
+            Field(("(edits stay here, not in the case)", "(edits stay here)"), 1),
+        ],
+        sep=" ",
+    )
+
+
 class NoteScreen(Screen[None]):
     """Edit the drafted note; F2 copies it, F3 writes it beside the case, F4 drafts it afresh."""
 
     BINDINGS = [
         Binding("f2", "copy", "Copy"),
-        Binding("f3", "write", "Write to file"),
-        Binding("f4", "redraft", "Draft again"),
+        # Short words: with the app's Quit and Help the footer fits 80 columns whole.
+        Binding("f3", "write", "Write file"),
+        Binding("f4", "redraft", "Redraft"),
         Binding("escape", "back", "Back"),
     ]
 
@@ -55,7 +68,7 @@ class NoteScreen(Screen[None]):
         self.write = write
 
     def compose(self) -> ComposeResult:
-        yield Static(f"Note: {self.case.label} (edits stay here, not in the case)", id="titlebar")
+        yield Static(note_title(self.case.label), id="titlebar")
         try:
             text = draft(self.assessment, self.case)
         except Exception as exc:  # a half-built drafter must not take the app down

@@ -31,7 +31,7 @@ class FindingsPane(WorkspacePane):
         line = self.query_one("#findings-draw", Static)
         line.update(header or "")
         line.display = bool(header)
-        self.query_one(FindingsView).show(a, error)
+        self.query_one(FindingsView).show(a, error, with_draw_line=not header)
 
     def focus_target(self) -> Widget | None:
         """The index table, to move through the indices."""
