@@ -8,10 +8,8 @@ CAUTION_LINES: tuple[str, ...] = (
     "Defer to local protocols and licensed clinical judgement.",
 )
 
-CAUTION_SHORT = (
-    "Decision support only, not a diagnosis: verify against the patient and local ranges."
-)
-"""One line for a status bar."""
+CAUTION_SHORT = "Decision support, not a diagnosis: check patient and local ranges."
+"""One line for a status bar: with its "! " mark and " (F1)" it fits 80 columns whole."""
 
 CAUTION_TEXT = " ".join(CAUTION_LINES)
 """The cautions as one sentence group, for notes and help screens."""

@@ -6,7 +6,7 @@ from pathlib import Path
 
 from screens.case_screen import CaseScreen
 from screens.findings_view import GROUP_KEY, IndexTable
-from tests.screens.support import SIZE
+from tests.screens.support import SIZE, screen_rows
 from tests.screens.support import make_app as _app
 from workup.short_names import SHORT_NAMES
 
@@ -24,3 +24,18 @@ async def test_findings_names_are_whole_at_80_columns(demo: Path) -> None:
         for name in names:
             assert name in SHORT_NAMES.values(), name
             assert len(name) <= name_width, name
+
+
+async def test_the_standing_caution_line_is_whole_at_80_columns(demo: Path) -> None:
+    # A new case has no case-specific cautions, so the bottom line shows the standing caution:
+    # it must read to its end at 80 columns, not stop mid-sentence.
+    from workup.cautions import CAUTION_SHORT
+
+    app = _app(demo.parent)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        await pilot.press("n")
+        await pilot.pause()
+        assert isinstance(app.screen, CaseScreen)
+        rows = screen_rows(app)
+        assert any(f"! {CAUTION_SHORT} (F1)" in row for row in rows), rows[-3:]
