@@ -26,7 +26,7 @@ from textual import events, on
 from textual.app import ComposeResult
 from textual.screen import Screen
 from textual.timer import Timer
-from textual.widgets import Footer, Input, Static, TabbedContent
+from textual.widgets import Footer, Static, TabbedContent
 
 from screens import persistence
 from screens.case import keys
@@ -83,6 +83,8 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         self.clock = clock
         self.overrides = overrides or {}
         self.dirty = dirty
+        if self.read_only and start_tab in ("tab-draw", "tab-case"):
+            start_tab = "tab-findings"  # a read-only session opens where nothing is edited
         self.start_tab = start_tab
         if not self.case.draws:
             self.case.draws.append(fresh_draw(self.case.draws, clock))
@@ -90,8 +92,10 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         self.index = opening_index(case, self.overrides)
         self.assessment: Assessment | None = None
         self.error: str | None = None
-        self.draw_pane = DrawPane(case, self.index)
-        self.case_pane = CasePane(case)
+        # The two forms hold most of the screen's widgets: one not shown first is built after
+        # the first paint (or when its tab is asked for), so the first screen comes up sooner.
+        self.draw_pane = DrawPane(case, self.index, late=start_tab != "tab-draw")
+        self.case_pane = CasePane(case, late=start_tab != "tab-case")
         self.findings_pane = FindingsPane()
         self.causes_pane = CausesPane()
         self.diagram_pane = DiagramPane()
@@ -118,9 +122,6 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         yield Footer()
 
     def on_mount(self) -> None:
-        # Long texts read from their start, not scrolled to the cursor at their end.
-        for w in self.query(".meta-row Input").results(Input):
-            w.cursor_position = 0
         self._show_draw()
         self._recompute()
         self._show_notices()
@@ -128,13 +129,23 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
             # A read-only session does not journal, so nothing may be edited in it.
             self.draw_pane.make_read_only()
             self.case_pane.make_read_only()
-            if self.start_tab in ("tab-draw", "tab-case"):
-                self.start_tab = "tab-findings"
         else:
             self.journal_timer = self.set_interval(JOURNAL_SECONDS, self.journal_tick)
             if self.dirty and self.session is not None:
                 self.journal_now()  # restored edits: make sure this session's draft holds them
-        self.action_tab(self.start_tab)
+        self._show_tab(self.start_tab)  # built at compose: no wait
+        self.call_after_refresh(self._build_late_panes)
+
+    async def _build_late_panes(self) -> None:
+        # After the first paint: the forms are ready by the time the fellow has read the
+        # findings. Awaited here, so a test's pause waits for them as for any mount.
+        if self.is_attached:
+            await self.build_all()
+
+    async def build_all(self) -> None:
+        """Build every pane not built yet (each once), e.g. before the app shuts down."""
+        for pane in self.panes.values():
+            await pane.build()
 
     def _show_notices(self) -> None:
         from screens.app_notices import banner_text
@@ -255,8 +266,14 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
 
     # ----------------------------------------------------------------- actions
 
-    def action_tab(self, tab_id: str) -> None:
-        """Show one tab and focus its content (the tab bar when it has nothing to focus)."""
+    async def action_tab(self, tab_id: str) -> None:
+        """Show one tab and focus its content (the tab bar when it has nothing to focus).
+
+        A pane not built yet is built first, so the key that asked for it lands in it."""
+        await self.panes[tab_id].build()
+        self._show_tab(tab_id)
+
+    def _show_tab(self, tab_id: str) -> None:
         tabs = self.query_one(TabbedContent)
         tabs.active = tab_id
         target = self.panes[tab_id].focus_target()
