@@ -134,13 +134,18 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
             if self.dirty and self.session is not None:
                 self.journal_now()  # restored edits: make sure this session's draft holds them
         self._show_tab(self.start_tab)  # built at compose: no wait
-        self.call_after_refresh(self._build_late_panes)
+        if not all(p.built for p in self.panes.values()):
+            self.screen_layout_refresh_signal.subscribe(self, self._after_first_layout)
 
-    async def _build_late_panes(self) -> None:
-        # After the first paint: the forms are ready by the time the fellow has read the
-        # findings. Awaited here, so a test's pause waits for them as for any mount.
-        if self.is_attached:
-            await self.build_all()
+    def _after_first_layout(self, _screen: Screen) -> None:
+        # A layout has just been painted: the forms not shown are built now, at once, in this
+        # screen's queue, so a test's pause (and the fellow's first key) waits for them as for
+        # any mount, and the first screen was not held back by them. Textual lays a screen out
+        # once before the app runs, without writing it: that one does not count.
+        if not self.app.is_running:
+            return
+        self.screen_layout_refresh_signal.unsubscribe(self)
+        self.call_next(self.build_all)
 
     async def build_all(self) -> None:
         """Build every pane not built yet (each once), e.g. before the app shuts down."""
@@ -277,7 +282,9 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         tabs = self.query_one(TabbedContent)
         tabs.active = tab_id
         target = self.panes[tab_id].focus_target()
-        (target if target is not None else tabs.query_one("Tabs")).focus()
+        # Focused at once, not after the next message: at start-up Textual would otherwise
+        # focus the tab bar first, one more full repaint and footer before the first screen.
+        self.set_focus(target if target is not None else tabs.query_one("Tabs"))
 
     def action_next_unit(self) -> None:
         """Switch the focused field to its next unit, converting a value already read."""
