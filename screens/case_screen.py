@@ -24,9 +24,11 @@ from typing import Any
 
 from textual import events, on
 from textual.app import ComposeResult
+from textual.css.query import QueryType
 from textual.screen import Screen
 from textual.timer import Timer
-from textual.widgets import Footer, Static, TabbedContent
+from textual.widget import Widget
+from textual.widgets import Footer, Static, TabbedContent, Tabs
 
 from screens import persistence
 from screens.case import keys
@@ -40,7 +42,7 @@ from screens.case.file_actions import FileActions
 from screens.case.findings_pane import FindingsPane
 from screens.case.keys import TABS
 from screens.case.messages import DrawChosen, UnitSystemChanged, WorkingCopyEdited
-from screens.case.pane_base import WorkspacePane
+from screens.case.pane_base import FormPane, WorkspacePane
 from screens.case.side_screens import SideScreens
 from screens.case.titlebar import title_text
 from workup.assess import Assessment, assess
@@ -285,6 +287,31 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         # Focused at once, not after the next message: at start-up Textual would otherwise
         # focus the tab bar first, one more full repaint and footer before the first screen.
         self.set_focus(target if target is not None else tabs.query_one("Tabs"))
+
+    def focus_next(self, selector: str | type[QueryType] = "*") -> Widget | None:
+        """Tab: as Textual does, except into and round a form (the rows' order stays as shown).
+
+        Entering a form from the tab bar lands on its first value (the draw's serum sodium, the
+        patient's age), not on the draw list, label and time above the values; Tab after the
+        form's last field goes round to its top, so those rows come after the values and stay
+        reachable (and by Shift+Tab from the first value)."""
+        jump = self._form_jump()
+        if jump is None:
+            return super().focus_next(selector)
+        self.set_focus(jump)
+        return jump
+
+    def _form_jump(self) -> Widget | None:
+        pane = self.panes.get(self.query_one(TabbedContent).active)
+        if not isinstance(pane, FormPane) or not pane.built or pane.read_only:
+            return None
+        focused = self.focused
+        if focused is None or isinstance(focused, Tabs):
+            return pane.focus_target()
+        fields = [w for w in self.focus_chain if pane in w.ancestors and w.id != pane.FORM_ID]
+        if fields and focused is fields[-1]:
+            return fields[0]
+        return None
 
     def action_next_unit(self) -> None:
         """Switch the focused field to its next unit, converting a value already read."""

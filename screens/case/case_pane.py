@@ -63,8 +63,8 @@ class CasePane(FormPane):
     # fmt: on
 
     def focus_target(self) -> Widget | None:
-        """The case's label, first in the form."""
-        return self.query_one("#case-label")
+        """The patient's age, the form's first value (the case label and units are above it)."""
+        return self.query_one("#case-age")
 
     @on(Input.Changed, "#case-label")
     def _case_label_changed(self, event: Input.Changed) -> None:
