@@ -47,7 +47,7 @@ from screens.case.side_screens import SideScreens
 from screens.case.titlebar import title_text
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
-from workup.draw_focus import draw_header, opening_index
+from workup.draw_focus import draw_header, opening
 from workup.model import Case, Draw
 
 __all__ = ["JOURNAL_SECONDS", "NO_TEST", "TABS", "CaseScreen"]
@@ -91,7 +91,9 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         if not self.case.draws:
             self.case.draws.append(fresh_draw(self.case.draws, clock))
         # Open on the draw that shows the acidosis, not a loading draw taken after it.
-        self.index = opening_index(case, self.overrides)
+        # The assessment made to choose that draw is the one first shown: not made twice.
+        self._opened: Assessment | None
+        self.index, self._opened = opening(case, self.overrides)
         self.assessment: Assessment | None = None
         self.error: str | None = None
         # The two forms hold most of the screen's widgets: one not shown first is built after
@@ -125,7 +127,8 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
 
     def on_mount(self) -> None:
         self._show_draw()
-        self._recompute()
+        opened, self._opened = self._opened, None
+        self._recompute(opened)
         self._show_notices()
         if self.read_only:
             # A read-only session does not journal, so nothing may be edited in it.
@@ -228,9 +231,10 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
 
     # ----------------------------------------------------------------- assessment
 
-    def _recompute(self) -> None:
+    def _recompute(self, ready: Assessment | None = None) -> None:
         try:
-            self.assessment = assess(self.case, self.draw.label, self.overrides)
+            # ``ready``: the assessment of the case as it stands, centred on the shown draw.
+            self.assessment = ready or assess(self.case, self.draw.label, self.overrides)
             self.error = None
         except Exception as exc:  # a half-built core must not take the app down
             self.assessment = None
