@@ -143,14 +143,18 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
             self.screen_layout_refresh_signal.subscribe(self, self._after_first_layout)
 
     def _after_first_layout(self, _screen: Screen) -> None:
-        # A layout has just been painted: the forms not shown are built now, at once, in this
+        # The screen has been laid out: the forms not shown are built now, at once, in this
         # screen's queue, so a test's pause (and the fellow's first key) waits for them as for
-        # any mount, and the first screen was not held back by them. Textual lays a screen out
-        # once before the app runs, without writing it: that one does not count.
+        # any mount, and the screen's own widgets were laid out without them. (Waiting for the
+        # first frame actually written would show a half-drawn screen while the forms mount.)
         if not self.app.is_running:
             return
         self.screen_layout_refresh_signal.unsubscribe(self)
-        self.call_next(self.build_all)
+        self.call_next(self._build_while_open)
+
+    async def _build_while_open(self) -> None:
+        if self.is_attached:  # not for a case closed in the meantime
+            await self.build_all()
 
     async def build_all(self) -> None:
         """Build every pane not built yet (each once), e.g. before the app shuts down."""
