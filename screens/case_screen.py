@@ -28,9 +28,10 @@ from textual.css.query import QueryType
 from textual.screen import Screen
 from textual.timer import Timer
 from textual.widget import Widget
-from textual.widgets import Footer, Static, TabbedContent, Tabs
+from textual.widgets import Static, TabbedContent, Tabs
 
 from screens import persistence
+from screens.app_actions import SteadyFooter
 from screens.case import keys
 from screens.case.case_pane import CasePane
 from screens.case.causes_pane import CausesPane
@@ -123,7 +124,7 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         with TabbedContent(id="tabs", initial=self.start_tab):
             yield from self.panes.values()
         yield Static("", id="caution-line")
-        yield Footer()
+        yield SteadyFooter()
 
     def on_mount(self) -> None:
         self._show_draw()
