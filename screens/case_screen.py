@@ -25,6 +25,7 @@ from typing import Any
 from textual import events, on
 from textual.app import ComposeResult
 from textual.css.query import QueryType
+from textual.reactive import Reactive
 from textual.screen import Screen
 from textual.timer import Timer
 from textual.widget import Widget
@@ -58,6 +59,10 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
     """One case: draws to enter, findings to read, notes to draft."""
 
     BINDINGS = keys.BINDINGS
+    # Textual repaints the whole screen when the focus moves (over 4 KB on the line for each
+    # Tab, and twice while the screen first settles); the widgets whose look depends on the
+    # focus are restyled and repainted by Textual anyway.
+    focused: Reactive[Widget | None] = Reactive(None, repaint=False)
 
     def __init__(
         self,
