@@ -1,7 +1,8 @@
 """The app's global actions: quit, help, closing message boxes, the theme, the command palette.
 
 WorkupApp (screens/app.py) mixes this in and binds the keys (its BINDINGS); each key's action_
-method is here, and so is every palette entry the app adds to a screen's own.
+method is here, and so is every palette entry the app adds to a screen's own. The footer that
+shows the keys on the library and case screens (SteadyFooter) is here too.
 """
 
 from __future__ import annotations
@@ -9,9 +10,10 @@ from __future__ import annotations
 from collections.abc import Iterable
 from typing import TYPE_CHECKING
 
-from textual.app import SystemCommand
+from textual.app import ComposeResult, SystemCommand
 from textual.binding import Binding
 from textual.screen import Screen
+from textual.widgets import Footer
 
 from screens.dialogs import ChoiceScreen, TooSmallScreen
 
@@ -27,6 +29,41 @@ else:
 DEFAULT_THEME = "textual-dark"
 HIGH_CONTRAST_THEME = "ansi-dark"
 """Uses the terminal's own palette, so a high-contrast terminal scheme carries through."""
+
+
+class SteadyFooter(Footer):
+    """Textual's footer, rebuilt only when the keys it shows change.
+
+    Textual rebuilds the footer whenever the bindings may have changed: every focus move, so
+    every Tab between two fields, repaints the bottom line (over 600 bytes on the line) and at
+    start-up the screen settles only after two or three such rebuilds. The keys shown are the
+    same unless a widget with keys of its own takes the focus.
+    """
+
+    _shown: tuple[tuple[object, ...], ...] | None = None
+
+    def __init__(self) -> None:
+        super().__init__()
+        # Textual's (private) flag: the footer fills itself when mounted, with the keys known
+        # by then, instead of mounting empty and being rebuilt at the first change.
+        self._bindings_ready = True
+
+    @staticmethod
+    def _keys(screen: Screen) -> tuple[tuple[object, ...], ...]:
+        return tuple(
+            (b.key, b.description, b.action, enabled, tooltip)
+            for (_, b, enabled, tooltip) in screen.active_bindings.values()
+            if b.show
+        )
+
+    def compose(self) -> ComposeResult:
+        self._shown = self._keys(self.screen)
+        yield from super().compose()
+
+    def bindings_changed(self, screen: Screen) -> None:
+        """Rebuild (as Textual does) only if the keys to show are not those shown."""
+        if self._keys(screen) != self._shown:
+            super().bindings_changed(screen)
 
 
 class GlobalActionsMixin(_AppBase):
@@ -53,6 +90,12 @@ class GlobalActionsMixin(_AppBase):
             return
         dirty = self._dirty_cases()
         if not dirty:
+            # A case's forms are built just after its first paint; shutting down while their
+            # widgets mount fails inside Textual, so a quick Ctrl+Q waits for them (a moment).
+            for screen in self.screen_stack:
+                build_all = getattr(screen, "build_all", None)
+                if build_all is not None:
+                    await build_all()
             self.exit()
             return
         case = dirty[-1]

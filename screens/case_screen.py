@@ -24,11 +24,15 @@ from typing import Any
 
 from textual import events, on
 from textual.app import ComposeResult
+from textual.css.query import QueryType
+from textual.reactive import Reactive
 from textual.screen import Screen
 from textual.timer import Timer
-from textual.widgets import Footer, Input, Static, TabbedContent
+from textual.widget import Widget
+from textual.widgets import Static, TabbedContent, Tabs
 
 from screens import persistence
+from screens.app_actions import SteadyFooter
 from screens.case import keys
 from screens.case.case_pane import CasePane
 from screens.case.causes_pane import CausesPane
@@ -40,12 +44,12 @@ from screens.case.file_actions import FileActions
 from screens.case.findings_pane import FindingsPane
 from screens.case.keys import TABS
 from screens.case.messages import DrawChosen, UnitSystemChanged, WorkingCopyEdited
-from screens.case.pane_base import WorkspacePane
+from screens.case.pane_base import FormPane, WorkspacePane
 from screens.case.side_screens import SideScreens
 from screens.case.titlebar import title_text
 from workup.assess import Assessment, assess
 from workup.cautions import CAUTION_LINES, CAUTION_SHORT
-from workup.draw_focus import draw_header, opening_index
+from workup.draw_focus import draw_header, opening
 from workup.model import Case, Draw
 
 __all__ = ["JOURNAL_SECONDS", "NO_TEST", "TABS", "CaseScreen"]
@@ -55,6 +59,10 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
     """One case: draws to enter, findings to read, notes to draft."""
 
     BINDINGS = keys.BINDINGS
+    # Textual repaints the whole screen when the focus moves (over 4 KB on the line for each
+    # Tab, and twice while the screen first settles); the widgets whose look depends on the
+    # focus are restyled and repainted by Textual anyway.
+    focused: Reactive[Widget | None] = Reactive(None, repaint=False)
 
     def __init__(
         self,
@@ -83,15 +91,21 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         self.clock = clock
         self.overrides = overrides or {}
         self.dirty = dirty
+        if self.read_only and start_tab in ("tab-draw", "tab-case"):
+            start_tab = "tab-findings"  # a read-only session opens where nothing is edited
         self.start_tab = start_tab
         if not self.case.draws:
             self.case.draws.append(fresh_draw(self.case.draws, clock))
         # Open on the draw that shows the acidosis, not a loading draw taken after it.
-        self.index = opening_index(case, self.overrides)
+        # The assessment made to choose that draw is the one first shown: not made twice.
+        self._opened: Assessment | None
+        self.index, self._opened = opening(case, self.overrides)
         self.assessment: Assessment | None = None
         self.error: str | None = None
-        self.draw_pane = DrawPane(case, self.index)
-        self.case_pane = CasePane(case)
+        # The two forms hold most of the screen's widgets: one not shown first is built after
+        # the first paint (or when its tab is asked for), so the first screen comes up sooner.
+        self.draw_pane = DrawPane(case, self.index, late=start_tab != "tab-draw")
+        self.case_pane = CasePane(case, late=start_tab != "tab-case")
         self.findings_pane = FindingsPane()
         self.causes_pane = CausesPane()
         self.diagram_pane = DiagramPane()
@@ -115,26 +129,43 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         with TabbedContent(id="tabs", initial=self.start_tab):
             yield from self.panes.values()
         yield Static("", id="caution-line")
-        yield Footer()
+        yield SteadyFooter()
 
     def on_mount(self) -> None:
-        # Long texts read from their start, not scrolled to the cursor at their end.
-        for w in self.query(".meta-row Input").results(Input):
-            w.cursor_position = 0
         self._show_draw()
-        self._recompute()
+        opened, self._opened = self._opened, None
+        self._recompute(opened)
         self._show_notices()
         if self.read_only:
             # A read-only session does not journal, so nothing may be edited in it.
             self.draw_pane.make_read_only()
             self.case_pane.make_read_only()
-            if self.start_tab in ("tab-draw", "tab-case"):
-                self.start_tab = "tab-findings"
         else:
             self.journal_timer = self.set_interval(JOURNAL_SECONDS, self.journal_tick)
             if self.dirty and self.session is not None:
                 self.journal_now()  # restored edits: make sure this session's draft holds them
-        self.action_tab(self.start_tab)
+        self._show_tab(self.start_tab)  # built at compose: no wait
+        if not all(p.built for p in self.panes.values()):
+            self.screen_layout_refresh_signal.subscribe(self, self._after_first_layout)
+
+    def _after_first_layout(self, _screen: Screen) -> None:
+        # The screen has been laid out: the forms not shown are built now, at once, in this
+        # screen's queue, so a test's pause (and the fellow's first key) waits for them as for
+        # any mount, and the screen's own widgets were laid out without them. (Waiting for the
+        # first frame actually written would show a half-drawn screen while the forms mount.)
+        if not self.app.is_running:
+            return
+        self.screen_layout_refresh_signal.unsubscribe(self)
+        self.call_next(self._build_while_open)
+
+    async def _build_while_open(self) -> None:
+        if self.is_attached:  # not for a case closed in the meantime
+            await self.build_all()
+
+    async def build_all(self) -> None:
+        """Build every pane not built yet (each once), e.g. before the app shuts down."""
+        for pane in self.panes.values():
+            await pane.build()
 
     def _show_notices(self) -> None:
         from screens.app_notices import banner_text
@@ -210,9 +241,10 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
 
     # ----------------------------------------------------------------- assessment
 
-    def _recompute(self) -> None:
+    def _recompute(self, ready: Assessment | None = None) -> None:
         try:
-            self.assessment = assess(self.case, self.draw.label, self.overrides)
+            # ``ready``: the assessment of the case as it stands, centred on the shown draw.
+            self.assessment = ready or assess(self.case, self.draw.label, self.overrides)
             self.error = None
         except Exception as exc:  # a half-built core must not take the app down
             self.assessment = None
@@ -255,12 +287,45 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
 
     # ----------------------------------------------------------------- actions
 
-    def action_tab(self, tab_id: str) -> None:
-        """Show one tab and focus its content (the tab bar when it has nothing to focus)."""
+    async def action_tab(self, tab_id: str) -> None:
+        """Show one tab and focus its content (the tab bar when it has nothing to focus).
+
+        A pane not built yet is built first, so the key that asked for it lands in it."""
+        await self.panes[tab_id].build()
+        self._show_tab(tab_id)
+
+    def _show_tab(self, tab_id: str) -> None:
         tabs = self.query_one(TabbedContent)
         tabs.active = tab_id
         target = self.panes[tab_id].focus_target()
-        (target if target is not None else tabs.query_one("Tabs")).focus()
+        # Focused at once, not after the next message: at start-up Textual would otherwise
+        # focus the tab bar first, one more full repaint and footer before the first screen.
+        self.set_focus(target if target is not None else tabs.query_one("Tabs"))
+
+    def focus_next(self, selector: str | type[QueryType] = "*") -> Widget | None:
+        """Tab: as Textual does, except into and round a form (the rows' order stays as shown).
+
+        Entering a form from the tab bar lands on its first value (the draw's serum sodium, the
+        patient's age), not on the draw list, label and time above the values; Tab after the
+        form's last field goes round to its top, so those rows come after the values and stay
+        reachable (and by Shift+Tab from the first value)."""
+        jump = self._form_jump()
+        if jump is None:
+            return super().focus_next(selector)
+        self.set_focus(jump)
+        return jump
+
+    def _form_jump(self) -> Widget | None:
+        pane = self.panes.get(self.query_one(TabbedContent).active)
+        if not isinstance(pane, FormPane) or not pane.built or pane.read_only:
+            return None
+        focused = self.focused
+        if focused is None or isinstance(focused, Tabs):
+            return pane.focus_target()
+        fields = [w for w in self.focus_chain if pane in w.ancestors and w.id != pane.FORM_ID]
+        if fields and focused is fields[-1]:
+            return fields[0]
+        return None
 
     def action_next_unit(self) -> None:
         """Switch the focused field to its next unit, converting a value already read."""

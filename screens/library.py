@@ -26,8 +26,9 @@ from textual.binding import Binding
 from textual.containers import VerticalScroll
 from textual.screen import Screen
 from textual.timer import Timer
-from textual.widgets import DataTable, Footer, Input, Static
+from textual.widgets import DataTable, Input, Static
 
+from screens.app_actions import SteadyFooter
 from screens.library_actions import LibraryActionsMixin
 from screens.library_loading import LibraryLoadingMixin
 from screens.library_preview import match_header, preview_text
@@ -106,7 +107,7 @@ class LibraryScreen(LibraryActionsMixin, LibrarySearchMixin, LibraryLoadingMixin
         yield DataTable(id="cases", cursor_type="row", zebra_stripes=True)
         with VerticalScroll(id="lib-preview-box"):
             yield Static("", id="lib-preview")
-        yield Footer()
+        yield SteadyFooter()
 
     def on_mount(self) -> None:
         self.narrow = self.app.size.width < WIDE_AT

@@ -144,6 +144,32 @@ def assess(
             case.label, None, {}, [], ranking.calls, ranking.next_tests,
             ["The case has no draws yet.", *CAUTION_LINES], ranking.notes, results, settings,
         )  # fmt: skip
+    return _centred(case, draw_label, results, ranking.calls, ranking.next_tests, ranking.notes,
+                    settings)  # fmt: skip
+
+
+def recentred(a: Assessment, case: Case, draw_label: str | None) -> Assessment:
+    """``a``, an assessment of ``case`` as it stands, centred on draw ``draw_label`` instead.
+
+    The same as ``assess(case, draw_label, ...)`` with the overrides ``a`` was made with, without
+    computing it again: every draw's results and the ranking read the whole case, not the
+    centre. Raises KeyError for an unknown draw label.
+    """
+    if not case.draws or a.settings is None:
+        return a
+    return _centred(case, draw_label, a.draws, a.patterns, a.next_tests, a.ranking_notes,
+                    a.settings)  # fmt: skip
+
+
+def _centred(
+    case: Case,
+    draw_label: str | None,
+    results: list[DrawResult],
+    calls: list[PatternCall],
+    next_tests: list[NextTest],
+    notes: list[str],
+    settings: Settings,
+) -> Assessment:
     draw = case.draw(draw_label)
     current = next(r for r in results if r.label == draw.label)
     cautions = value_cautions(draw) + [
@@ -157,10 +183,10 @@ def assess(
         draw_label=draw.label,
         indices=current.findings,
         disorders=current.disorders,
-        patterns=ranking.calls,
-        next_tests=ranking.next_tests,
+        patterns=calls,
+        next_tests=next_tests,
         cautions=[*dict.fromkeys(cautions), *CAUTION_LINES],
-        ranking_notes=ranking.notes,
+        ranking_notes=notes,
         draws=results,
         settings=settings,
     )

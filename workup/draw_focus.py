@@ -128,12 +128,12 @@ def focused_assessment(
 ) -> tuple[Assessment, DrawFocus]:
     """The assessment of ``draw_label``, or of the focus draw when none is asked for, with the
     focus (whose sentence a one-draw view shows). Raises KeyError for an unknown draw label."""
-    from workup.assess import assess  # here, so the choice itself needs only results
+    from workup.assess import assess, recentred  # here, so the choice itself needs only results
 
     a = assess(case, draw_label, user_overrides)
     focus = focus_draw(case, a.draws)
     if draw_label is None and focus.label is not None and focus.label != a.draw_label:
-        a = assess(case, focus.label, user_overrides)
+        a = recentred(a, case, focus.label)  # the same numbers, without assessing twice
     return a, focus
 
 
@@ -158,9 +158,19 @@ def draw_header(case: Case, a: Assessment) -> str | None:
 
 def opening_index(case: Case, user_overrides: dict[str, float] | None = None) -> int:
     """Position in ``case.draws`` of the draw a case view opens on (0 for a case without draws)."""
-    from workup.assess import assess
+    return opening(case, user_overrides)[0]
 
+
+def opening(case: Case, user_overrides: dict[str, float] | None = None) -> tuple[int, Assessment]:
+    """The draw a case view opens on (as :func:`opening_index`) and the assessment centred on
+    it, the case assessed once: a view opening a case needs both."""
+    from workup.assess import assess, recentred
+
+    a = assess(case, None, user_overrides)
     if len(case.draws) < 2:
-        return max(len(case.draws) - 1, 0)
-    index = focus_draw(case, assess(case, None, user_overrides).draws).index
-    return len(case.draws) - 1 if index is None else index
+        return max(len(case.draws) - 1, 0), a
+    index = focus_draw(case, a.draws).index
+    index = len(case.draws) - 1 if index is None else index
+    if case.draws[index].label != a.draw_label:
+        a = recentred(a, case, case.draws[index].label)
+    return index, a

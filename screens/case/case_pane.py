@@ -26,13 +26,15 @@ from workup.model import Case, Patient, Sex
 class CasePane(FormPane):
     """The form of everything about the case that is not one draw's."""
 
-    def __init__(self, case: Case) -> None:
-        super().__init__("F3 Case", id="tab-case")
+    FORM_ID = "case-form"
+
+    def __init__(self, case: Case, *, late: bool = False) -> None:
+        super().__init__("F3 Case", id="tab-case", late=late)
         self.case = case
         """The working copy the form edits (the screen's own object)."""
 
     # fmt: off
-    def compose(self) -> ComposeResult:
+    def content(self) -> ComposeResult:
         """The case form, top to bottom in the order Tab moves through it."""
         c = self.case
         with VerticalScroll(id="case-form"):
@@ -60,13 +62,9 @@ class CasePane(FormPane):
             yield FlagList(list(c.context), id="case-context", compact=True)
     # fmt: on
 
-    def make_read_only(self) -> None:
-        """Disable the form (a read-only session must not be edited)."""
-        self.query_one("#case-form").disabled = True
-
     def focus_target(self) -> Widget | None:
-        """The case's label, first in the form."""
-        return self.query_one("#case-label")
+        """The patient's age, the form's first value (the case label and units are above it)."""
+        return self.query_one("#case-age")
 
     @on(Input.Changed, "#case-label")
     def _case_label_changed(self, event: Input.Changed) -> None:

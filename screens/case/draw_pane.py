@@ -62,8 +62,10 @@ TAKEN_REFUSED = "x refused: not a date and time; write e.g. 2026-11-30T08:15"
 class DrawPane(FormPane):
     """The draw's label, time, loading test and gas sample, then one row per analyte."""
 
-    def __init__(self, case: Case, index: int) -> None:
-        super().__init__("F2 Draw", id="tab-draw")
+    FORM_ID = "entry"
+
+    def __init__(self, case: Case, index: int, *, late: bool = False) -> None:
+        super().__init__("F2 Draw", id="tab-draw", late=late)
         self.case = case
         """The working copy whose draws the form edits (the screen's own object)."""
         self.index = index
@@ -87,7 +89,7 @@ class DrawPane(FormPane):
         return self.case.draws[self.index]
 
     # fmt: off
-    def compose(self) -> ComposeResult:
+    def content(self) -> ComposeResult:
         """The draw form, top to bottom in the order Tab moves through it, then the help line."""
         d = self.draw
         taken = d.taken.isoformat(timespec="minutes") if d.taken else ""
@@ -122,9 +124,16 @@ class DrawPane(FormPane):
 
     # ----------------------------------------------------------------- shown by the screen
 
+    def after_build(self) -> None:
+        """Fill the form, built late, with the draw shown."""
+        super().after_build()
+        self.show_draw(self.index)
+
     def show_draw(self, index: int) -> None:
         """Fill the form from draw ``index`` (and the refused text kept for it)."""
         self.index = index
+        if not self.built:
+            return  # filled when built
         d = self.draw
         self._refresh_draw_options()
         self.query_one("#draw-count", Static).update(
@@ -156,10 +165,6 @@ class DrawPane(FormPane):
             field.show_reading(reading)
         self.update_help()
 
-    def make_read_only(self) -> None:
-        """Disable the form (a read-only session must not be edited)."""
-        self.query_one("#entry").disabled = True
-
     def focus_target(self) -> Widget | None:
         """The value row last focused, else the first one."""
         return (
@@ -167,7 +172,7 @@ class DrawPane(FormPane):
         )
 
     def focus_label(self) -> None:
-        """Focus the draw's label (a new draw is named first)."""
+        """Focus the draw's label (a new draw is named first; the form must be built)."""
         self.query_one("#meta-label", Input).focus()
 
     def follow_focus(self, widget: Widget) -> None:
@@ -351,6 +356,8 @@ class DrawPane(FormPane):
         return default_unit(field.analyte, self.case.units)
 
     def _refresh_draw_options(self) -> None:
+        if not self.built:
+            return
         select = self.query_one("#draw-select", Select)
         with self.quiet():
             select.set_options(draw_options(self.case.draws))
@@ -358,6 +365,8 @@ class DrawPane(FormPane):
 
     def update_help(self) -> None:
         """Explain the focused value row (or the form's keys) on the help line."""
+        if not self.built:
+            return
         field = self.focused_field
         reading = (
             self.readings.get((field.panel, field.key), FieldReading(None))

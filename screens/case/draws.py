@@ -42,7 +42,7 @@ class DrawActions(DraftJournal):
         def _mark_dirty(self) -> None: ...
         def _show_draw(self) -> None: ...
         def _recompute(self) -> None: ...
-        def action_tab(self, tab_id: str) -> None: ...
+        async def action_tab(self, tab_id: str) -> None: ...
 
     def switch_draw(self, index: int) -> None:
         """Show draw ``index`` in the form and the findings."""
@@ -62,14 +62,14 @@ class DrawActions(DraftJournal):
         if self.index < len(self.case.draws) - 1:
             self.switch_draw(self.index + 1)
 
-    def action_new_draw(self) -> None:
+    async def action_new_draw(self) -> None:
         """Add an empty draw, time-stamped now, and show it."""
         if self._refuse_if_read_only():
             return
         self.case.draws.append(fresh_draw(self.case.draws, self.clock))
         self._mark_dirty()
         self.switch_draw(len(self.case.draws) - 1)
-        self.action_tab("tab-draw")
+        await self.action_tab("tab-draw")  # the form may not be built yet
         self.draw_pane.focus_label()
 
     def action_copy_draw(self) -> None:
