@@ -9,6 +9,7 @@ It may also hold ``unit_system`` (conventional, si or none): the units a new cas
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from pathlib import Path
 from typing import Any
 
@@ -214,6 +215,80 @@ USER_CHOICES = ("unit_system",)
 
 UNIT_SYSTEMS = ("conventional", "si", "none")
 """Values of ``unit_system``: the unit system of a new case ("none": ask on every field)."""
+
+
+# --- children's reference values (read by workup/indices/paediatric.py and tubular.py) ---
+# Fixed constants, not Settings fields: a band is a table, not one number, and a user's settings
+# file holds flat numbers. Each value names its source; "from memory" where it was recalled
+# rather than read from the paper.
+
+
+@dataclass(frozen=True, slots=True)
+class AgeBand:
+    """A children's reference range over whole years of age, both ends included."""
+
+    first_age: int
+    """Youngest age (whole years) the band covers."""
+    last_age: int
+    """Oldest age (whole years) the band covers."""
+    low: float
+    """Lower reference limit."""
+    high: float
+    """Upper reference limit."""
+    label: str
+    """How reasons name the band, e.g. "2-15 years"."""
+    detail: str = ""
+    """How the band was drawn from the source, when not read straight from it."""
+
+
+TMP_GFR_CHILD_SOURCE = (
+    "Payne, Ann Clin Biochem 1998;35:201 (age-related ranges after Brodehl et al., "
+    "Pediatr Nephrol 1988), from memory"
+)
+"""Where the children's TmP/GFR bands come from."""
+TMP_GFR_CHILD_CITE = "Payne 1998, from memory"
+"""The short citation a reason carries (the finding's source gives it in full)."""
+
+TMP_GFR_CHILD_BANDS: tuple[AgeBand, ...] = (
+    AgeBand(0, 0, 1.15, 3.43, "under 1 year",
+            "the bands at birth (1.43-3.43), 3 months (1.48-3.30) and 6 months (1.15-2.60) "
+            "joined, as age is held in whole years"),
+    AgeBand(1, 1, 1.15, 2.60, "age 1",
+            "no band between 6 months and 2 years: the 6-month band (1.15-2.60), the wider "
+            "of its neighbours, is used"),
+    AgeBand(2, 15, 1.15, 2.44, "2-15 years"),
+)  # fmt: skip
+"""TmP/GFR (mmol/L) reference bands of children (:data:`TMP_GFR_CHILD_SOURCE`, from memory).
+
+Ages 16 and 17 fall between the 2-15-year band and the adult range (from about 25 years), so no
+band is used there: the adult lower limit ``tmp_gfr_low`` stays, with a caution."""
+
+INFANT_BICARBONATE_THRESHOLD = 22.0
+"""Renal bicarbonate threshold of infants, mmol/L: plasma bicarbonate above it spills into the
+urine, so an infant's normal plasma bicarbonate sits at or a little below it (Edelmann et al.,
+J Clin Invest 1967: about 22 in infants, lower than in older children and adults; from memory)."""
+
+INFANT_BICARBONATE_SOURCE = "Edelmann et al., J Clin Invest 1967, from memory"
+"""Where :data:`INFANT_BICARBONATE_THRESHOLD` comes from (also the short citation)."""
+
+TTKG_CHILD_RANGES: tuple[AgeBand, ...] = (
+    AgeBand(0, 0, 4.9, 15.5, "infants"),
+    AgeBand(1, 17, 4.1, 10.5, "children"),
+)
+"""Normal TTKG (ratio) of infants and children on their usual diet with a normal serum
+potassium (Rodríguez-Soriano et al., Pediatr Nephrol 1990; ranges from memory). They describe
+children without a potassium demand, so they are stated beside the reading, not used as the
+hypo-/hyperkalemia cut-offs, which judge the response to a demand."""
+
+TTKG_CHILD_SOURCE = "Rodríguez-Soriano et al., Pediatr Nephrol 1990;4:105, from memory"
+"""Where :data:`TTKG_CHILD_RANGES` come from."""
+
+
+def age_band(bands: tuple[AgeBand, ...], age: int | None) -> AgeBand | None:
+    """The band of ``bands`` covering ``age`` (whole years), or None."""
+    if age is None:
+        return None
+    return next((b for b in bands if b.first_age <= age <= b.last_age), None)
 
 
 def describe(name: str) -> str:

@@ -199,12 +199,14 @@ def test_old_files_without_height_still_load():
 
 
 def test_adult_cutoffs_carry_a_caution_in_a_child():
-    # Paediatric ranges for TTKG, urine K/creatinine and TmP/GFR run higher (from memory): the
-    # adult cut-offs stay, with a caution, as no paediatric source is named with confidence.
+    # The TTKG and urine K/creatinine keep their adult cut-offs with a caution: the children's
+    # TTKG range (Rodríguez-Soriano et al., Pediatr Nephrol 1990, from memory) describes no
+    # potassium demand, and no paediatric urine K/creatinine source is named.
     child = _findings(load_case(CHILD))
     ukcr = child["urine_potassium_creatinine_ratio"]
     assert ukcr.status is Status.caution and "age 6" in ukcr.reasons[0]
     assert "age 6" in child["ttkg"].reasons[0]
+    assert "Rodríguez-Soriano" in child["ttkg"].reasons[0]
     adult = _findings(load_case(ROOT / "cases" / "distal-rta-classic.yaml"))
     assert not any("adult values" in r for f in adult.values() for r in f.reasons)
 
@@ -215,7 +217,8 @@ def test_infant_bicarbonate_caution_keeps_a_not_valid_reason_first():
     serum = {"sodium": 140.0, "chloride": 116.0, "bicarbonate": 18.0}
     urine = {"ph": 6.5, "sodium": 40.0, "potassium": 20.0, "chloride": 30.0}
     infant = compute_all(DrawInputs(serum=serum, urine=urine, age=0, height_cm=70))
-    # From memory: an infant's normal serum bicarbonate runs below the adult cut-off.
+    # An infant's renal bicarbonate threshold is about 22 mmol/L (Edelmann et al., J Clin Invest
+    # 1967, from memory): its normal bicarbonate sits near the adult cut-off.
     assert infant["urine_ph"].status is Status.caution
     assert "infant" in infant["urine_ph"].reasons[0]
     flagged = compute_all(

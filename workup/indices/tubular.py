@@ -12,6 +12,12 @@ from workup.indices._common import Judge, bicarbonate, finding, fmt, ratio
 from workup.indices.kidney import egfr_estimate
 from workup.inputs import DrawInputs
 from workup.model import LoadingTest
+from workup.settings import (
+    TMP_GFR_CHILD_BANDS,
+    TMP_GFR_CHILD_CITE,
+    TMP_GFR_CHILD_SOURCE,
+    age_band,
+)
 
 FE_FORMULA = "FE{x} (%) = 100 × (urine {x} × plasma creatinine) / (plasma {x} × urine creatinine)"
 FEHCO3_SOURCE = "Rodríguez Soriano, JASN 2002;13:2160, Table 5"
@@ -202,19 +208,49 @@ def tmp_gfr(x: DrawInputs) -> Finding:
         value = trp * plasma
     else:
         value = 0.3 * trp / (1 - 0.8 * trp) * plasma
-    low = value < s.tmp_gfr_low
+    band = age_band(TMP_GFR_CHILD_BANDS, x.age)
+    if band is not None:
+        # A child's TmP/GFR runs well above the adult range: the adult lower limit would call
+        # wasting late, so the age's band is read and named first.
+        j.caution(
+            f"age {x.age}: read against the children's band for {band.label}, "
+            f"{band.low:.2f}-{band.high:.2f} mmol/L ({TMP_GFR_CHILD_CITE}), not the adult "
+            f"lower limit {fmt(s.tmp_gfr_low, 2)}"
+        )
+        if band.detail:
+            j.note(f"children's band for {band.label}: {band.detail}")
     j.caution(
         "needs a fasting second-morning urine and blood; the formula and range are from memory"
     )
     _ckd_note(x, j, "phosphate excretion")
-    j.note(
-        f"{fmt(value, 2)} mmol/L (TRP {fmt(trp, 2)}); below {fmt(s.tmp_gfr_low, 2)} is renal "
-        "phosphate wasting"
-    )
-    return finding(
-        (fid, name, unit, TMP_FORMULA, TMP_SOURCE), value, j, "low" if low else "normal",
-        extra={"trp": trp},
-    )  # fmt: skip
+    if band is None:
+        j.note(
+            f"{fmt(value, 2)} mmol/L (TRP {fmt(trp, 2)}); below {fmt(s.tmp_gfr_low, 2)} is "
+            "renal phosphate wasting"
+        )
+        reading = "low" if value < s.tmp_gfr_low else "normal"
+        return finding(
+            (fid, name, unit, TMP_FORMULA, TMP_SOURCE), value, j, reading, extra={"trp": trp}
+        )
+    return _child_tmp_gfr(value, trp, band.low, band.high, j)
+
+
+def _child_tmp_gfr(value: float, trp: float, low: float, high: float, j: Judge) -> Finding:
+    """A child's TmP/GFR read against the age band ``low``-``high`` (low, normal or high)."""
+    if value < low:
+        reading, words = "low", "below the band is renal phosphate wasting"
+    elif value > high:
+        reading = "high"
+        words = (
+            "above the band: reabsorption higher than the age's range (common practice: as "
+            "with low parathyroid hormone action)"
+        )
+    else:
+        reading, words = "normal", "within the band"
+    j.note(f"{fmt(value, 2)} mmol/L (TRP {fmt(trp, 2)}); {words}")
+    source = f"{TMP_SOURCE}; children's bands: {TMP_GFR_CHILD_SOURCE}"
+    meta = ("tmp_gfr", "TmP/GFR", "mmol/L", TMP_FORMULA, source)
+    return finding(meta, value, j, reading, low=low, high=high, extra={"trp": trp})
 
 
 def fe_urate(x: DrawInputs) -> Finding:
