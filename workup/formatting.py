@@ -7,6 +7,9 @@ from workup.findings import STATUS_WORD, Finding
 # Decimal places by unit: pH and unitless ratios to 2, everything else to 1, osmolality and eGFR
 # whole. mmHg keeps one decimal because Winters' band edges fall on halves (28.5–32.5).
 _DECIMALS = {"": 2, "%": 1, "mmHg": 1, "mOsm/kg": 0, "mL/min/1.73 m2": 0}
+_ID_DECIMALS = {"tmp_gfr": 2}
+"""Findings whose cut-offs sit on hundredths (TmP/GFR 0.80, children's 1.15 mmol/L): one decimal
+would print 0.96 as "1.0" beside a limit of 1.15."""
 
 
 def fmt_number(value: float | None, unit: str = "", decimals: int | None = None) -> str:
@@ -24,7 +27,7 @@ def fmt_value(f: Finding) -> str:
     """``value unit`` of a finding, e.g. "+23.0 mmol/L"; signed for gaps."""
     if f.value is None:
         return "—"
-    text = fmt_number(f.value, f.unit)
+    text = fmt_number(f.value, f.unit, _ID_DECIMALS.get(f.id))
     if "gap" in f.id and f.value > 0 and "osmolal" not in f.id:
         text = "+" + text
     return f"{text} {f.unit}".strip()

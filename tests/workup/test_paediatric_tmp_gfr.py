@@ -84,3 +84,12 @@ def test_the_band_comes_from_the_calculator_itself():
     adult = tmp_gfr(_x(40, 1.2, 24.0))
     # Adult lower limit 0.8 (Payne 1998, from memory): 0.96 is normal, no band on the finding.
     assert adult.interpretation == "normal" and adult.low is None
+
+
+def test_tmp_gfr_is_printed_to_hundredths_beside_its_limits():
+    # 0.96 against the 2-15-year band 1.15-2.44 (Payne 1998, from memory): one decimal printed it
+    # as "1.0 mmol/L", which reads as inside the adult range and blurs the 1.15 limit.
+    from workup.formatting import fmt_value
+
+    f = compute_all(_x(6, 1.2, 24.0))["tmp_gfr"]
+    assert fmt_value(f) == "0.96 mmol/L"

@@ -60,7 +60,7 @@ READING: dict[str, dict[str, str]] = {
         "low": "low, in keeping with impaired distal proton secretion",
     },
     "fe_phosphate": {"wasting": "in keeping with renal phosphate wasting", "normal": "normal"},
-    "tmp_gfr": {"low": "low", "normal": "normal"},
+    "tmp_gfr": {"low": "low", "normal": "normal", "high": "high"},
     "fe_urate": {"high": "high", "normal": "normal"},
     "expected_pco2": {
         "appropriate": "appropriate",
