@@ -56,6 +56,8 @@ def draw_options(draws: list[Draw]) -> list[tuple[str, int]]:
 
 
 TAKEN_REFUSED = "x refused: not a date and time; write e.g. 2026-11-30T08:15"
+TAKEN_MARK = "x refused: not a date/time"
+"""The mark beside the field: short enough to show whole at 80 columns (F1 adds the example)."""
 """The state line of a draw time that does not read as an ISO date and time."""
 
 
@@ -148,7 +150,7 @@ class DrawPane(FormPane):
         self.set_select("#meta-sample", d.blood_gas.sample.value)
         self.set_input("#meta-notes", d.notes or "")
         self.show_problem("st-label", None)
-        self.show_problem("st-taken", None if taken is None else TAKEN_REFUSED)
+        self.show_problem("st-taken", None if taken is None else TAKEN_MARK)
         for (panel, key), field in self.fields.items():
             m = getattr(d.panel(panel), key)
             if m is not None:
@@ -306,7 +308,7 @@ class DrawPane(FormPane):
         try:
             taken = datetime.fromisoformat(text) if text else None
         except ValueError:
-            taken, problem = self.draw.taken, TAKEN_REFUSED
+            taken, problem = self.draw.taken, TAKEN_MARK
         # The refused text is kept so that saving lists it instead of dropping it unseen.
         if problem is None:
             self.pending_taken.pop(self.index, None)

@@ -39,3 +39,25 @@ async def test_the_standing_caution_line_is_whole_at_80_columns(demo: Path) -> N
         assert isinstance(app.screen, CaseScreen)
         rows = screen_rows(app)
         assert any(f"! {CAUTION_SHORT} (F1)" in row for row in rows), rows[-3:]
+
+
+async def test_a_refused_draw_time_is_marked_where_it_can_be_seen_at_80_columns(demo: Path) -> None:
+    # The mark sat right of a 46-column input and fell off an 80-column screen, so a refused
+    # time looked accepted until the save dialog listed it.
+    from textual.widgets import Input
+
+    from screens.case.draw_pane import TAKEN_MARK
+
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        await pilot.press("f2")
+        await pilot.pause()
+        screen = app.screen
+        taken = screen.query_one("#meta-taken", Input)
+        taken.focus()
+        taken.value = "3.4"
+        await pilot.pause()
+        rows = screen_rows(app)
+        row = next(r for r in rows if r.lstrip().startswith("taken"))
+        assert TAKEN_MARK in row, row

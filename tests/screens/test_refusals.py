@@ -31,7 +31,7 @@ async def test_refused_draw_time_is_shown_and_listed_before_saving(demo: Path) -
         taken.value = "138"  # a sodium typed into the wrong row
         await pilot.pause()
         state = str(screen.query_one("#st-taken", Static).render())
-        assert "refused" in state and "not a date and time" in state
+        assert "refused" in state and "not a date/time" in state
         assert screen.draw.taken == before  # the old time stays; 138 is not read as one
         await pilot.press("ctrl+s")
         await pilot.pause()
