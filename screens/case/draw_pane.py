@@ -173,10 +173,6 @@ class DrawPane(FormPane):
             self.focused_field.input if self.focused_field else self.query_one("#in-serum-sodium")
         )
 
-    def focus_label(self) -> None:
-        """Focus the draw's label (a new draw is named first; the form must be built)."""
-        self.query_one("#meta-label", Input).focus()
-
     def follow_focus(self, widget: Widget) -> None:
         """Note which value row (if any) holds ``widget``, just focused, and explain it."""
         self.focused_field = next((a for a in widget.ancestors if isinstance(a, ValueField)), None)

@@ -63,14 +63,14 @@ class DrawActions(DraftJournal):
             self.switch_draw(self.index + 1)
 
     async def action_new_draw(self) -> None:
-        """Add an empty draw, time-stamped now, and show it."""
+        """Add an empty draw, time-stamped now, and show it on its first value (repeat labs are
+        typed straight in; its label and time come after the values in Tab order)."""
         if self._refuse_if_read_only():
             return
         self.case.draws.append(fresh_draw(self.case.draws, self.clock))
         self._mark_dirty()
         self.switch_draw(len(self.case.draws) - 1)
         await self.action_tab("tab-draw")  # the form may not be built yet
-        self.draw_pane.focus_label()
 
     def action_copy_draw(self) -> None:
         """Add a copy of this draw's values as a new draw."""

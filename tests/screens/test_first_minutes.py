@@ -61,3 +61,23 @@ async def test_a_refused_draw_time_is_marked_where_it_can_be_seen_at_80_columns(
         rows = screen_rows(app)
         row = next(r for r in rows if r.lstrip().startswith("taken"))
         assert TAKEN_MARK in row, row
+
+
+async def test_a_new_draw_takes_repeat_labs_typed_straight_away(demo: Path) -> None:
+    # Repeat labs come in as numbers: after Ctrl+N the first keys typed must land in serum
+    # sodium, not rename the draw (its default label and time stay; Shift+Tab reaches them).
+    from tests.screens.support import field
+
+    app = _app(demo.parent, demo)
+    async with app.run_test(size=SIZE) as pilot:
+        await pilot.pause()
+        screen = app.screen
+        n = len(screen.case.draws)
+        await pilot.press("ctrl+n")
+        await pilot.pause()
+        await pilot.press(*"139", "tab", *"3.4")
+        await pilot.pause()
+        assert len(screen.case.draws) == n + 1
+        assert screen.draw.label == f"draw {n + 1}"
+        assert field(screen, "serum-sodium").input.value == "139"
+        assert field(screen, "serum-potassium").input.value == "3.4"
