@@ -247,7 +247,8 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
     def _draw_header(self) -> str | None:
         if self.assessment is None:
             return None
-        return draw_header(self.case, self.assessment)
+        # Fitted to the terminal's width (the pane has no margin): one line at 80 columns.
+        return draw_header(self.case, self.assessment, self.app.size.width or None)
 
     @on(TabbedContent.TabActivated)
     async def _tab_shown(self, event: TabbedContent.TabActivated) -> None:
