@@ -90,12 +90,12 @@ class GlobalActionsMixin(_AppBase):
             return
         dirty = self._dirty_cases()
         if not dirty:
-            # A case's forms are built just after its first paint; shutting down while their
-            # widgets mount fails inside Textual, so a quick Ctrl+Q waits for them (a moment).
+            # A case's form is built on its first visit; shutting down while its widgets mount
+            # fails inside Textual, so a Ctrl+Q right after F2 waits for them (a moment).
             for screen in self.screen_stack:
-                build_all = getattr(screen, "build_all", None)
-                if build_all is not None:
-                    await build_all()
+                settle = getattr(screen, "settle_builds", None)
+                if settle is not None:
+                    await settle()
             self.exit()
             return
         case = dirty[-1]

@@ -102,8 +102,8 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         self.index, self._opened = opening(case, self.overrides)
         self.assessment: Assessment | None = None
         self.error: str | None = None
-        # The two forms hold most of the screen's widgets: one not shown first is built after
-        # the first paint (or when its tab is asked for), so the first screen comes up sooner.
+        # The two forms hold most of the screen's widgets: one not shown first is built on its
+        # first visit (its tab, or a key that needs it), so the first screen comes up sooner.
         self.draw_pane = DrawPane(case, self.index, late=start_tab != "tab-draw")
         self.case_pane = CasePane(case, late=start_tab != "tab-case")
         self.findings_pane = FindingsPane()
@@ -145,27 +145,16 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
             if self.dirty and self.session is not None:
                 self.journal_now()  # restored edits: make sure this session's draft holds them
         self._show_tab(self.start_tab)  # built at compose: no wait
-        if not all(p.built for p in self.panes.values()):
-            self.screen_layout_refresh_signal.subscribe(self, self._after_first_layout)
-
-    def _after_first_layout(self, _screen: Screen) -> None:
-        # The screen has been laid out: the forms not shown are built now, at once, in this
-        # screen's queue, so a test's pause (and the fellow's first key) waits for them as for
-        # any mount, and the screen's own widgets were laid out without them. (Waiting for the
-        # first frame actually written would show a half-drawn screen while the forms mount.)
-        if not self.app.is_running:
-            return
-        self.screen_layout_refresh_signal.unsubscribe(self)
-        self.call_next(self._build_while_open)
-
-    async def _build_while_open(self) -> None:
-        if self.is_attached:  # not for a case closed in the meantime
-            await self.build_all()
 
     async def build_all(self) -> None:
-        """Build every pane not built yet (each once), e.g. before the app shuts down."""
+        """Build every pane not built yet (each once), e.g. for a test that reads every form."""
         for pane in self.panes.values():
             await pane.build()
+
+    async def settle_builds(self) -> None:
+        """Wait for any pane build under way (none is started), e.g. before the app shuts down."""
+        for pane in self.panes.values():
+            await pane.settle()
 
     def _show_notices(self) -> None:
         from screens.app_notices import banner_text
@@ -258,10 +247,15 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
     def _draw_header(self) -> str | None:
         if self.assessment is None:
             return None
-        return draw_header(self.case, self.assessment)
+        # Fitted to the terminal's width (the pane has no margin): one line at 80 columns.
+        return draw_header(self.case, self.assessment, self.app.size.width or None)
 
     @on(TabbedContent.TabActivated)
-    def _tab_shown(self, event: TabbedContent.TabActivated) -> None:
+    async def _tab_shown(self, event: TabbedContent.TabActivated) -> None:
+        # A tab chosen on the tab bar (arrows, mouse) is a first visit too: its form is built.
+        pane = self.panes.get(event.pane.id)
+        if pane is not None:
+            await pane.build()
         if event.pane.id == "tab-diagram":
             self._update_diagram()
 
@@ -309,11 +303,21 @@ class CaseScreen(FileActions, DrawActions, SideScreens, Screen[None]):
         patient's age), not on the draw list, label and time above the values; Tab after the
         form's last field goes round to its top, so those rows come after the values and stay
         reachable (and by Shift+Tab from the first value)."""
+        pane = self.panes.get(self.query_one(TabbedContent).active)
+        if isinstance(pane, FormPane) and not pane.built:
+            # Tab on the bar of a form still being built: enter it once its rows are there.
+            self.call_next(self._enter_when_built, pane)
+            return None
         jump = self._form_jump()
         if jump is None:
             return super().focus_next(selector)
         self.set_focus(jump)
         return jump
+
+    async def _enter_when_built(self, pane: FormPane) -> None:
+        await pane.build()
+        if not pane.read_only and self.query_one(TabbedContent).active == pane.id:
+            self.set_focus(pane.focus_target())
 
     def _form_jump(self) -> Widget | None:
         pane = self.panes.get(self.query_one(TabbedContent).active)

@@ -148,12 +148,62 @@ def header(a: Assessment, focus: DrawFocus) -> str:
     return text
 
 
-def draw_header(case: Case, a: Assessment) -> str | None:
+# The roles in few words, for a header that must keep to one line of a narrow terminal.
+_SHORT_ROLE = {
+    "is a loading test, read by the causes": ("loading test", "loading tests"),
+    "also shows an acidosis and is read by the causes": ("also acidotic", "also acidotic"),
+    "is read by the causes": ("other draw", "other draws"),
+}
+
+
+def _short_headers(a: Assessment, focus: DrawFocus) -> list[str]:
+    # Each shorter than the one before, all saying the same: which draw is shown and why,
+    # and what every other draw is for (by name, then by count). The causes read every draw.
+    if a.draw_label is not None and a.draw_label != focus.label:
+        shown = f"draw '{a.draw_label}' (as chosen)"
+        if focus.label is None:
+            return [shown]
+        return [f"{shown}; '{focus.label}' shows {focus.reason}"]
+    shown = f"draw '{focus.label}' ({focus.reason})"
+    by_role: dict[str, list[str]] = {}
+    for label, role in focus.others:
+        by_role.setdefault(role, []).append(f"'{label}'")
+    named, counted = [], []
+    for role, labels in by_role.items():
+        one, many = _SHORT_ROLE.get(role, (role, role))
+        named.append(f"{', '.join(labels)}: {one if len(labels) == 1 else many}")
+        counted.append(f"{len(labels)} {many}" if len(labels) > 1 else f"{labels[0]}: {one}")
+    if not focus.others:
+        return [shown]
+    return [
+        f"{shown}; {'; '.join(named)}; all read by the causes",
+        f"{shown}; {'; '.join(named)}; causes read all",
+        f"{shown}; {'; '.join(counted)}; causes read all",
+    ]
+
+
+def fit_words(text: str, width: int) -> str:
+    """``text`` cut at a word boundary to ``width`` columns, marked "…" where cut."""
+    if len(text) <= width:
+        return text
+    cut = text[: width - 1].rsplit(" ", 1)[0].rstrip(";,:")
+    return cut + "…"
+
+
+def draw_header(case: Case, a: Assessment, width: int | None = None) -> str | None:
     """The header line of a one-draw view of ``a`` (None when the case has one draw or none,
-    where there is nothing to tell apart)."""
+    where there is nothing to tell apart).
+
+    With ``width``, the line keeps to that many columns: the first of the full wording and two
+    shorter ones that fits, else the shortest cut at a word boundary."""
     if len(case.draws) < 2 or a.draw_label is None:
         return None
-    return header(a, focus_draw(case, a.draws))
+    focus = focus_draw(case, a.draws)
+    text = header(a, focus)
+    if width is None or len(text) <= width:
+        return text
+    shorter = _short_headers(a, focus)
+    return next((t for t in shorter if len(t) <= width), fit_words(shorter[-1], width))
 
 
 def opening_index(case: Case, user_overrides: dict[str, float] | None = None) -> int:

@@ -110,15 +110,16 @@ class DrawPane(FormPane):
                                         "meta-during"), "st-during")
             for title, fields in SECTIONS:
                 yield Static(title, classes="section")
-                if title == "Blood gas":
-                    yield meta_row("gas sample",
-                                   entry_select([(s.value, s.value) for s in GasSample],
-                                                d.blood_gas.sample.value, "meta-sample"),
-                                   "st-sample")
                 for panel, key in fields:
                     field = ValueField(panel, key)
                     self.fields[(panel, key)] = field
                     yield field
+                if title == "Blood gas":
+                    # After the gas values, so typing value after value never lands in it.
+                    yield meta_row("gas sample",
+                                   entry_select([(s.value, s.value) for s in GasSample],
+                                                d.blood_gas.sample.value, "meta-sample"),
+                                   "st-sample")
             yield Static("Draw notes", classes="section")
             yield meta_row("notes", entry_input(d.notes or "", "meta-notes", 500), "st-notes")
         yield Static("", id="field-help")

@@ -22,11 +22,16 @@ def field_help(
     if field is None:
         return FORM_KEYS
     a = field.analyte
-    units = ", ".join(u or "no unit" for u in unit_choices(a))
+    choices = unit_choices(a)
+    units = ", ".join(u or "no unit" for u in choices)
     out = Text()
     out.append(f"{a.name} ({field.panel.value.replace('_', ' ')})", style="bold")
-    shown = field.unit if field.unit is not None else "no unit chosen"
-    out.append(f" in {shown or 'no unit'}; units {units}")
+    if len(choices) == 1:
+        # One unit (or none, as for pH): nothing to choose, so it is said once.
+        out.append(f" in {choices[0]}" if choices[0] else ", no unit")
+    else:
+        shown = field.unit if field.unit is not None else "no unit chosen"
+        out.append(f" in {shown or 'no unit'}; units {units}")
     if len(unit_choices(a)) > 1 and not unit_note:
         out.append(" (Ctrl+T switches)")  # else said on the second line, keeping 80 columns
     if a.words:

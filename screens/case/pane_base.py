@@ -4,8 +4,8 @@ builders of a form row. The two forms (draw_pane.py, case_pane.py) say what each
 
 A form pane can be built late: its tab is there from the start, but its rows are composed only
 when :meth:`WorkspacePane.build` is first awaited (the screen does so when the tab is first shown,
-and for the others once the first screen is painted). A case opened on its findings then paints
-without first mounting the ~270 widgets of the two forms.
+or for a key that needs the form). A case opened on its findings then paints, and is used,
+without ever mounting the ~270 widgets of a form the fellow does not open.
 """
 
 from __future__ import annotations
@@ -78,6 +78,11 @@ class WorkspacePane(TabPane):
                 self.after_build()
         finally:
             self._building.set()
+
+    async def settle(self) -> None:
+        """Wait for a build under way to finish (returns at once when none was started)."""
+        if self._building is not None:
+            await self._building.wait()
 
     def after_build(self) -> None:
         """Fill a late pane's new widgets from the state kept while it was not built."""

@@ -18,9 +18,19 @@ def make_app(cases: Path, file: Path | None = None):
     return build_app(cases, file, clock=lambda: CLOCK)
 
 
-def field(screen: CaseScreen, fid: str) -> ValueField:
-    """The entry row of ``fid`` (e.g. ``serum-sodium``)."""
+async def field(screen: CaseScreen, fid: str) -> ValueField:
+    """The entry row of ``fid`` (e.g. ``serum-sodium``), the draw form built first.
+
+    The form is built on its first visit (F2, or a key that needs it); a test that sets a
+    field without opening the tab builds it as that visit would."""
+    await screen.draw_pane.build()
     return screen.query_one(f"#row-{fid}", ValueField)
+
+
+async def forms(screen: CaseScreen) -> CaseScreen:
+    """``screen`` with both its forms built (as after a visit to F2 and F3)."""
+    await screen.build_all()
+    return screen
 
 
 def screen_strips(app) -> list:

@@ -18,7 +18,7 @@ from screens.findings_view import IndexTable
 from screens.flags import FlagList
 from screens.help_screen import HelpScreen
 from screens.note_screen import TMUX_HINT, NoteScreen
-from tests.screens.support import CLOCK, SIZE
+from tests.screens.support import CLOCK, SIZE, forms
 from tests.screens.support import field as _field
 from tests.screens.support import make_app as _app
 from workup.assess import assess
@@ -74,9 +74,9 @@ async def test_keys_arriving_in_one_burst_stay_in_their_fields(tmp_path: Path) -
             char = k if len(k) == 1 else ("\r" if k == "enter" else None)
             app.post_message(events.Key(k, char))
         await pilot.pause()
-        assert _field(screen, "serum-sodium").input.value == "140"
-        assert _field(screen, "serum-potassium").input.value == "4.15"
-        assert _field(screen, "serum-chloride").input.value == "104"
+        assert (await _field(screen, "serum-sodium")).input.value == "140"
+        assert (await _field(screen, "serum-potassium")).input.value == "4.15"
+        assert (await _field(screen, "serum-chloride")).input.value == "104"
 
 
 async def test_editing_keys_in_a_burst_keep_their_order(tmp_path: Path) -> None:
@@ -86,7 +86,7 @@ async def test_editing_keys_in_a_burst_keep_their_order(tmp_path: Path) -> None:
     async with app.run_test(size=SIZE) as pilot:
         app.new_case()
         await pilot.pause()
-        sodium = _field(app.screen, "serum-sodium").input
+        sodium = (await _field(app.screen, "serum-sodium")).input
         sodium.focus()
         sodium.value = "141"
         sodium.cursor_position = 3
@@ -104,7 +104,7 @@ async def test_impossible_value_is_refused_inline_and_nothing_crashes(demo: Path
         screen = app.screen
         assert isinstance(screen, CaseScreen)
         await pilot.press("f2")
-        sodium = _field(screen, "serum-sodium")
+        sodium = await _field(screen, "serum-sodium")
         sodium.input.focus()
         sodium.input.value = ""
         await pilot.press(*"1380")
@@ -118,7 +118,7 @@ async def test_impossible_value_is_refused_inline_and_nothing_crashes(demo: Path
         # Awkward keys on several fields: nothing may raise.
         for fid, text in [("blood-gas-ph", "abc"), ("blood-gas-pco2", "1e999"), ("urine-ph", "-5"),
                           ("serum-potassium", "nan"), ("urine-ketones", "lots")]:  # fmt: skip
-            f = _field(screen, fid)
+            f = await _field(screen, fid)
             f.input.focus()
             f.input.value = text
             for k in ("ctrl+t", "backspace", "enter", "shift+tab"):
@@ -133,7 +133,7 @@ async def test_unusual_value_is_accepted_with_a_caution(demo: Path) -> None:
         await pilot.pause()
         screen = app.screen
         # Usual serum potassium 2.0–7.0 mmol/L (workup/analytes.py; common practice, from memory).
-        k = _field(screen, "serum-potassium")
+        k = await _field(screen, "serum-potassium")
         k.input.value = "7.5"
         await pilot.pause()
         assert k.state_kind == "-unusual"
@@ -148,7 +148,7 @@ async def test_pasting_a_block_into_one_field_leaves_the_others_alone(demo: Path
         await pilot.pause()
         screen = app.screen
         before = {k: v for k, v in screen.draw.serum.measurements().items() if k != "potassium"}
-        k = _field(screen, "serum-potassium")
+        k = await _field(screen, "serum-potassium")
         k.input.focus()
         k.input.value = ""
         k.input.post_message(events.Paste("4.1\nsodium 150\nchloride 99\n"))
@@ -170,7 +170,7 @@ async def test_unit_switch_converts_and_an_ambiguous_bare_number_is_refused(
         app.new_case()
         await pilot.pause()
         screen = app.screen
-        creat = _field(screen, "serum-creatinine")
+        creat = await _field(screen, "serum-creatinine")
         creat.input.focus()
         creat.input.value = "0.8"
         await pilot.pause()
@@ -199,7 +199,7 @@ async def test_save_writes_the_case_and_reopening_shows_the_same_findings(demo: 
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
         screen = app.screen
-        _field(screen, "serum-sodium").input.value = "140"
+        (await _field(screen, "serum-sodium")).input.value = "140"
         await pilot.pause()
         assert screen.dirty
         await pilot.press("ctrl+s")
@@ -246,7 +246,7 @@ async def test_save_as_duplicate_and_delete_draw(demo: Path) -> None:
         await pilot.pause()
         # The copy opened on the baseline (the acidosis), so that is the draw deleted.
         assert [d.label for d in dup.case.draws] == ["bicarbonate 3 h"]
-        assert dup.index == 0 and _field(dup, "serum-sodium").input.value == "141"
+        assert dup.index == 0 and (await _field(dup, "serum-sodium")).input.value == "141"
 
 
 async def test_new_case_is_saved_into_the_library_folder(tmp_path: Path) -> None:
@@ -254,9 +254,9 @@ async def test_new_case_is_saved_into_the_library_folder(tmp_path: Path) -> None
     async with app.run_test(size=SIZE) as pilot:
         app.new_case()
         await pilot.pause()
-        screen = app.screen
+        screen = await forms(app.screen)  # the case form is built on its first visit
         screen.query_one("#case-label", Input).value = "Bed 7 acidosis"
-        _field(screen, "serum-sodium").input.value = "137"
+        (await _field(screen, "serum-sodium")).input.value = "137"
         await pilot.pause()
         assert screen.save_now()
         assert screen.path == tmp_path / "bed-7-acidosis.yaml"
@@ -279,14 +279,14 @@ async def test_switch_draws_and_add_a_loading_test_draw(demo: Path) -> None:
         await pilot.press("ctrl+pageup")
         await pilot.pause()
         assert screen.index == 0
-        assert _field(screen, "serum-sodium").input.value == "139"
+        assert (await _field(screen, "serum-sodium")).input.value == "139"
         assert screen.assessment.draw_label == "baseline"
         assert screen.query_one("#meta-during", Select).value == "none"
         await pilot.press("ctrl+n")
         await pilot.pause()
         assert len(screen.case.draws) == 3 and screen.index == 2
         assert screen.draw.taken == CLOCK and screen.draw.label == "draw 3"
-        assert _field(screen, "serum-sodium").input.value == ""
+        assert (await _field(screen, "serum-sodium")).input.value == ""
         screen.query_one("#meta-during", Select).value = "ammonium_chloride"
         screen.query_one("#meta-label", Input).value = "NH4Cl 4 h"
         await pilot.pause()
@@ -368,7 +368,7 @@ async def test_quit_asks_when_unsaved_and_cancel_keeps_working(demo: Path) -> No
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
         screen = app.screen
-        _field(screen, "serum-sodium").input.value = "143"
+        (await _field(screen, "serum-sodium")).input.value = "143"
         await pilot.pause()
         await pilot.press("ctrl+q")
         await pilot.pause()
@@ -389,7 +389,7 @@ async def test_quit_with_save_writes_then_exits(demo: Path) -> None:
     app = _app(demo.parent, demo)
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
-        _field(app.screen, "serum-chloride").input.value = "107"
+        (await _field(app.screen, "serum-chloride")).input.value = "107"
         await pilot.pause()
         await pilot.press("ctrl+q")
         await pilot.pause()
@@ -451,7 +451,7 @@ async def test_pasted_lab_report_is_applied_to_the_current_draw(demo: Path) -> N
         assert (
             screen.draw.serum.potassium.canonical == 2.9
         )  # the baseline's, untouched by the paste
-        assert _field(screen, "serum-sodium").input.value == "137" and screen.dirty
+        assert (await _field(screen, "serum-sodium")).input.value == "137" and screen.dirty
 
 
 async def test_optional_screens_open_or_say_they_are_missing(demo: Path) -> None:
@@ -500,7 +500,7 @@ async def test_ctrl_d_deletes_to_the_right_when_no_message_is_shown(tmp_path: Pa
     async with app.run_test(size=SIZE) as pilot:
         app.new_case()
         await pilot.pause()
-        sodium = _field(app.screen, "serum-sodium").input
+        sodium = (await _field(app.screen, "serum-sodium")).input
         sodium.focus()
         for k in [*"140", "home", "ctrl+d"]:
             await pilot.press(k)

@@ -23,8 +23,9 @@ async def test_opens_on_the_baseline_draw_and_names_the_loading_draw(demo: Path)
         assert screen.draw.label == "baseline"
         assert screen.assessment is not None and screen.assessment.draw_label == "baseline"
         header = str(screen.query_one("#findings-draw", Static).render())
-        assert "findings of draw 'baseline' (the acidosis)" in header
-        assert "'bicarbonate 3 h' is a loading test" in " ".join(header.split())
+        # Fitted to 80 columns (tests/screens/test_fit_80.py): shown draw, why, the other's role.
+        assert "draw 'baseline' (the acidosis)" in header
+        assert "'bicarbonate 3 h': loading test" in " ".join(header.split())
         # The note screen drafts the brief style of the draw on screen.
         note = draft(screen.assessment, screen.case)
         assert note == draft_note(screen.assessment, screen.case, "brief", "text")

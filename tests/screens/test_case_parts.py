@@ -91,4 +91,4 @@ def test_the_help_line_explains_the_focused_field_or_lists_the_keys() -> None:
     sodium = ValueField(Panel.serum, "sodium")
     sodium.unit = "mmol/L"
     text = str(field_help(sodium, read_field(sodium.analyte, "141", "mmol/L", None)))
-    assert text == "sodium (serum) in mmol/L; units mmol/L\n+ read as 141 mmol/L"
+    assert text == "sodium (serum) in mmol/L\n+ read as 141 mmol/L"  # one unit: said once

@@ -8,7 +8,7 @@ from pathlib import Path
 
 from textual.widgets import Input
 
-from tests.screens.support import SIZE
+from tests.screens.support import SIZE, forms
 from tests.screens.support import make_app as _app
 
 
@@ -22,7 +22,7 @@ async def test_height_is_entered_and_refused_in_the_case_form(tmp_path: Path, ca
     app = _app(folder, target)
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
-        screen = app.screen
+        screen = await forms(app.screen)  # the case form is built on its first visit
         box = screen.query_one("#case-height", Input)
         assert box.value == "110"
         box.value = "1.2"  # metres, not centimetres

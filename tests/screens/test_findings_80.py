@@ -45,7 +45,7 @@ async def test_table_keeps_the_room_at_80_by_24(demo: Path) -> None:
         text = "\n".join(screen_rows(app))
         # The pane's header says which draw: no second "Draw:" line, no legend line repeating
         # what every status cell spells out.
-        assert "findings of draw 'baseline'" in text
+        assert "draw 'baseline' (the acidosis)" in text
         assert "Draw: baseline" not in text
         assert "legend:" not in text
 

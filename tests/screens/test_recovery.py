@@ -18,7 +18,7 @@ from textual.widgets import Input, OptionList
 from screens.case_screen import JOURNAL_SECONDS, CaseScreen
 from screens.dialogs import AskScreen, ChoiceScreen, ConflictScreen
 from screens.recovery import BackupsScreen, RecoveryScreen
-from tests.screens.support import SIZE
+from tests.screens.support import SIZE, forms
 from tests.screens.support import field as _field
 from tests.screens.support import make_app as _app
 from workup.caseio import load_case
@@ -38,7 +38,7 @@ async def _leave_a_draft(demo: Path, sodium: str = "150") -> None:
         await pilot.pause()
         screen = app.screen
         assert isinstance(screen, CaseScreen)
-        _field(screen, "serum-sodium").input.value = sodium
+        (await _field(screen, "serum-sodium")).input.value = sodium
         await pilot.pause()
         assert screen.journal_now()
 
@@ -202,7 +202,7 @@ async def test_journal_timer_writes_only_when_something_changed(demo: Path) -> N
         draft = draft_path(demo)
         screen.journal_tick()  # nothing changed: nothing written
         assert not draft.exists()
-        _field(screen, "serum-chloride").input.value = "112"
+        (await _field(screen, "serum-chloride")).input.value = "112"
         await pilot.pause()
         assert not draft.exists()  # not on every keystroke: on the timer
         screen.journal_tick()
@@ -211,7 +211,7 @@ async def test_journal_timer_writes_only_when_something_changed(demo: Path) -> N
         stamp = draft.stat().st_mtime_ns
         screen.journal_tick()  # unchanged since: not rewritten
         assert draft.stat().st_mtime_ns == stamp
-        _field(screen, "serum-chloride").input.value = "113"
+        (await _field(screen, "serum-chloride")).input.value = "113"
         await pilot.pause()
         screen.journal_tick()
         assert read_draft(draft).case.draws[0].serum.chloride.canonical == 113
@@ -232,7 +232,7 @@ async def test_close_after_discard_deletes_the_draft_and_the_lock(demo: Path) ->
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
         screen = app.screen
-        _field(screen, "serum-sodium").input.value = "143"
+        (await _field(screen, "serum-sodium")).input.value = "143"
         await pilot.pause()
         screen.journal_tick()
         assert draft_path(demo).exists() and lock_path(demo).exists()
@@ -252,7 +252,7 @@ async def test_quit_after_save_or_discard_is_a_clean_close(demo: Path, answer: s
     async with app.run_test(size=SIZE) as pilot:
         await pilot.pause()
         screen = app.screen
-        _field(screen, "serum-sodium").input.value = "146"
+        (await _field(screen, "serum-sodium")).input.value = "146"
         await pilot.pause()
         screen.journal_tick()
         assert draft_path(demo).exists()
@@ -274,11 +274,12 @@ async def test_a_new_case_is_journaled_and_saved_under_its_label(tmp_path: Path)
         screen = app.screen
         screen.journal_tick()
         assert list_drafts() == []  # an untouched new case leaves nothing behind
-        _field(screen, "serum-sodium").input.value = "137"
+        (await _field(screen, "serum-sodium")).input.value = "137"
         await pilot.pause()
         screen.journal_tick()
         [d] = list_drafts()
         assert d.case_path == (tmp_path / "new-case.yaml").resolve() and d.base is None
+        await forms(screen)  # the case form is built on its first visit
         screen.query_one("#case-label", Input).value = "Bed 9"
         await pilot.pause()
         assert screen.save_now()
@@ -293,7 +294,7 @@ async def test_a_new_case_is_journaled_and_saved_under_its_label(tmp_path: Path)
 async def _edit_then_change_on_disk(pilot, demo: Path) -> CaseScreen:
     await pilot.pause()
     screen = pilot.app.screen
-    _field(screen, "serum-sodium").input.value = "144"
+    (await _field(screen, "serum-sodium")).input.value = "144"
     await pilot.pause()
     # Someone edits the file by hand meanwhile.
     demo.write_text(demo.read_text().replace("Weakness;", "Weakness (hand edit);"))
@@ -389,7 +390,7 @@ async def test_a_case_held_elsewhere_opens_read_only_or_not_at_all(demo: Path) -
             screen = app.screen
             assert isinstance(screen, CaseScreen) and screen.read_only
             assert "READ-ONLY" in str(screen.query_one("#titlebar").render())
-            assert _field(screen, "serum-sodium").input.is_disabled  # no edits
+            assert (await _field(screen, "serum-sodium")).input.is_disabled  # no edits
             assert screen.case.draws[0].serum.sodium.canonical == 139  # the values show
             before = demo.read_bytes()
             await pilot.press("ctrl+s", "ctrl+n")
@@ -447,7 +448,7 @@ async def test_backups_are_listed_and_one_is_put_back_after_asking(demo: Path) -
         await pilot.pause()
         assert any("No backups" in m for m in _messages(app))
         for value in ("142", "143"):
-            _field(screen, "serum-sodium").input.value = value
+            (await _field(screen, "serum-sodium")).input.value = value
             await pilot.pause()
             assert screen.save_now()
         await pilot.press("ctrl+r")

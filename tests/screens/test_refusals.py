@@ -12,7 +12,7 @@ from textual.widgets import Input, Static
 from screens.case_screen import CaseScreen
 from screens.dialogs import ChoiceScreen
 from screens.help_screen import HelpScreen
-from tests.screens.support import SIZE
+from tests.screens.support import SIZE, forms
 from tests.screens.support import field as _field
 from tests.screens.support import make_app as _app
 from workup.caseio import load_case
@@ -26,6 +26,7 @@ async def test_refused_draw_time_is_shown_and_listed_before_saving(demo: Path) -
         screen = app.screen
         assert isinstance(screen, CaseScreen)
         before = load_case(demo).draws[screen.index].taken  # the draw the case opened on
+        await forms(screen)  # the draw form is built on its first visit
         taken = screen.query_one("#meta-taken", Input)
         taken.focus()
         taken.value = "138"  # a sodium typed into the wrong row
@@ -58,7 +59,7 @@ async def test_refused_values_say_why_on_the_help_line_and_in_f1(demo: Path) -> 
             ("serum-chloride", "104 mEq/x", "unknown unit"),
         ]
         for fid, text, reason in typos:
-            row = _field(screen, fid)
+            row = await _field(screen, fid)
             row.input.focus()
             row.input.value = text
             await pilot.pause()
@@ -71,7 +72,7 @@ async def test_refused_values_say_why_on_the_help_line_and_in_f1(demo: Path) -> 
         page = str(app.screen.help)
         assert "Refused on draw" in page
         for fid, _text, reason in typos:
-            name = _field(screen, fid).analyte.name
+            name = (await _field(screen, fid)).analyte.name
             assert any(name in line and reason in line for line in page.splitlines())
 
 
@@ -82,10 +83,10 @@ async def test_new_case_takes_its_units_from_the_user_settings(tmp_path: Path) -
         await pilot.pause()
         screen = app.screen
         assert isinstance(screen, CaseScreen)
-        creat = _field(screen, "serum-creatinine")
+        creat = await _field(screen, "serum-creatinine")
         assert creat.unit == "mg/dL"  # ready to type into, not "unit?"
         for fid in ("serum-urea-nitrogen", "serum-glucose", "serum-albumin"):
-            assert _field(screen, fid).unit is not None
+            assert (await _field(screen, fid)).unit is not None
         creat.input.focus()
         await pilot.pause()
         hint = str(screen.query_one("#field-help", Static).render())
@@ -106,5 +107,5 @@ async def test_new_case_in_si_units_when_the_settings_say_so(tmp_path: Path) -> 
         await pilot.pause()
         screen = app.screen
         assert isinstance(screen, CaseScreen)
-        assert _field(screen, "serum-creatinine").unit == "umol/L"
+        assert (await _field(screen, "serum-creatinine")).unit == "umol/L"
         assert app.user_overrides() == {"anion_gap_upper": 12.0}  # numbers still read
