@@ -79,5 +79,5 @@ async def test_a_new_draw_takes_repeat_labs_typed_straight_away(demo: Path) -> N
         await pilot.pause()
         assert len(screen.case.draws) == n + 1
         assert screen.draw.label == f"draw {n + 1}"
-        assert field(screen, "serum-sodium").input.value == "139"
-        assert field(screen, "serum-potassium").input.value == "3.4"
+        assert (await field(screen, "serum-sodium")).input.value == "139"
+        assert (await field(screen, "serum-potassium")).input.value == "3.4"
