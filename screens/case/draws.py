@@ -71,6 +71,8 @@ class DrawActions(DraftJournal):
         self._mark_dirty()
         self.switch_draw(len(self.case.draws) - 1)
         await self.action_tab("tab-draw")  # the form may not be built yet
+        # The tab may already be shown with focus further down the form: start at its top.
+        self.set_focus(self.draw_pane.query_one("#in-serum-sodium"))
 
     def action_copy_draw(self) -> None:
         """Add a copy of this draw's values as a new draw."""

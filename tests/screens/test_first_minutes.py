@@ -73,6 +73,11 @@ async def test_a_new_draw_takes_repeat_labs_typed_straight_away(demo: Path) -> N
         await pilot.pause()
         screen = app.screen
         n = len(screen.case.draws)
+        # As in the app after typing a draw: the form shown, focus far down it (gas pCO2).
+        await pilot.press("f2")
+        await pilot.pause()
+        (await field(screen, "blood-gas-pco2")).input.focus()
+        await pilot.pause()
         await pilot.press("ctrl+n")
         await pilot.pause()
         await pilot.press(*"139", "tab", *"3.4")
