@@ -14,22 +14,11 @@ from pathlib import Path
 import pytest
 
 from bench.library_bench import generate_library
-from tests.workup.helpers.library_files import BROKEN, _write_broken
+from tests.workup.helpers.library_files import BROKEN, _cache, _write_broken
 from workup import library as lib
 from workup.caseio import CaseFileError, load_case
 from workup.library import list_library
 from workup.library_index import LibraryIndex, cache_path, engine_stamp
-
-
-@pytest.fixture
-def library(tmp_path: Path) -> Path:
-    folder = tmp_path / "cases"
-    generate_library(folder, 30, seed=7)
-    return folder
-
-
-def _cache(tmp_path: Path) -> Path:
-    return tmp_path / "cache" / "index.sqlite"
 
 
 def test_lists_every_file_with_a_summary(library: Path, tmp_path: Path) -> None:

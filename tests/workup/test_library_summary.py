@@ -12,21 +12,10 @@ from pathlib import Path
 import pytest
 
 from bench.library_bench import generate_library
-from tests.workup.helpers.library_files import DEMO, _write_broken
+from tests.workup.helpers.library_files import DEMO, _cache, _write_broken
 from workup import library as lib
 from workup.caseio import load_case
 from workup.library import list_library, open_library, sort_entries, summarize_file
-
-
-@pytest.fixture
-def library(tmp_path: Path) -> Path:
-    folder = tmp_path / "cases"
-    generate_library(folder, 30, seed=7)
-    return folder
-
-
-def _cache(tmp_path: Path) -> Path:
-    return tmp_path / "cache" / "index.sqlite"
 
 
 def test_summary_carries_the_assessment(cases_dir: Path, tmp_path: Path) -> None:

@@ -26,3 +26,8 @@ def _write_broken(folder: Path) -> None:
         (folder / name).write_text(text, encoding="utf-8")
     (folder / "latin1.yaml").write_bytes(b"schema: 1\nlabel: caf\xe9\n")
     (folder / "nul.yaml").write_bytes(b"schema: 1\nlabel: a\x00b\n")
+
+
+def _cache(tmp_path: Path) -> Path:
+    """The index file the library tests use, under the test's own folder."""
+    return tmp_path / "cache" / "index.sqlite"
