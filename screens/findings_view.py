@@ -15,7 +15,7 @@ from textual.binding import Binding
 from textual.containers import Vertical
 from textual.widgets import DataTable, Static
 
-from workup.assess import Assessment
+from workup.assess import COMPENSATION_RULES, Assessment
 from workup.findings import STATUS_MARK, STATUS_WORD, Finding, Status
 from workup.formatting import fmt_value
 from workup.short_names import SHORT_NAME_WIDTH, short_name
@@ -85,18 +85,6 @@ def finding_detail(f: Finding, show_source: bool, compact: bool = False) -> Grou
         out.append(item("(s: formula and source)", 2, "dim"))
     return Group(*out)
 
-
-COMPENSATION_RULES = (
-    "expected_pco2",
-    "expected_pco2_metabolic_alkalosis",
-    "expected_bicarbonate_respiratory_acidosis_acute",
-    "expected_bicarbonate_respiratory_acidosis_chronic",
-    "expected_bicarbonate_respiratory_alkalosis_acute",
-    "expected_bicarbonate_respiratory_alkalosis_chronic",
-)
-"""The compensation rules among the indices (display grouping only). The core marks one of
-them NOT VALID only when the draw is not the disorder the rule is for (workup/indices/gas.py:
-bicarbonate, pCO2 or pH on the wrong side), so a NOT VALID rule here is one that does not apply."""
 
 GROUP_KEY = "group:compensation"
 """Row key of the one row standing for the compensation rules that do not apply."""

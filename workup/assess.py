@@ -73,14 +73,21 @@ class Assessment:
         return self.patterns[0] if self.patterns else None
 
 
+COMPENSATION_RULES = (
+    "expected_pco2",
+    "expected_pco2_metabolic_alkalosis",
+    "expected_bicarbonate_respiratory_acidosis_acute",
+    "expected_bicarbonate_respiratory_acidosis_chronic",
+    "expected_bicarbonate_respiratory_alkalosis_acute",
+    "expected_bicarbonate_respiratory_alkalosis_chronic",
+)
+"""The compensation rules among the indices. Each is NOT VALID only when the draw is not the
+disorder the rule is for (workup/indices/gas.py: bicarbonate, pCO2 or pH on the wrong side), so a
+NOT VALID rule is one that does not apply to the draw."""
+
 STATE_BOUND = frozenset(
     {
-        "expected_pco2",
-        "expected_pco2_metabolic_alkalosis",
-        "expected_bicarbonate_respiratory_acidosis_acute",
-        "expected_bicarbonate_respiratory_acidosis_chronic",
-        "expected_bicarbonate_respiratory_alkalosis_acute",
-        "expected_bicarbonate_respiratory_alkalosis_chronic",
+        *COMPENSATION_RULES,
         "fe_bicarbonate",
         "urine_blood_pco2",
         "egfr_schwartz",

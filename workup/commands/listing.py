@@ -109,19 +109,21 @@ def run(args: argparse.Namespace) -> int:
         sys.stdout.write("[\n" + lines + "\n]\n" if out else "[]\n")
     else:
         sys.stdout.write(render_rows(matches))
-    bad = sum(1 for m in matches if not m.entry.ok)
-    tail = f"; {bad} did not load" if bad else ""
-    print(f"{len(matches)} of {len(entries)} case file(s) in {folder}{tail}", file=sys.stderr)
+    _report_count(len(matches), len(entries), sum(1 for m in matches if not m.entry.ok), folder)
     return 0
 
 
 def _write_stored(rows: list[tuple[str, bool]], folder: Path) -> int:
     """Write stored listing objects as ``--json`` does (one case per line) and the count line."""
     sys.stdout.write("[\n" + ",\n".join(t for t, _ in rows) + "\n]\n" if rows else "[]\n")
-    bad = sum(1 for _, ok in rows if not ok)
-    tail = f"; {bad} did not load" if bad else ""
-    print(f"{len(rows)} of {len(rows)} case file(s) in {folder}{tail}", file=sys.stderr)
+    _report_count(len(rows), len(rows), sum(1 for _, ok in rows if not ok), folder)
     return 0
+
+
+def _report_count(shown: int, total: int, bad: int, folder: Path) -> None:
+    """The count line on standard error, naming the files that did not load."""
+    tail = f"; {bad} did not load" if bad else ""
+    print(f"{shown} of {total} case file(s) in {folder}{tail}", file=sys.stderr)
 
 
 def _cohort(matches: list, csv_path: str | None) -> int:
