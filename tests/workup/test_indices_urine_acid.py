@@ -87,6 +87,18 @@ def test_uag_context_flags(flag, status, words):
     assert f.status is status and words in f.reasons[0]
 
 
+@pytest.mark.parametrize(("uag", "status"), [(25, Status.caution), (-25, Status.ok)])
+def test_uag_without_a_urine_ph_cannot_rule_out_bicarbonaturia(uag, status):
+    # Above urine pH 6.5 bicarbonate is an unmeasured anion that makes the gap positive (Berend
+    # et al., Kidney Dis 2017): without the pH a positive gap cannot be read as plainly valid; a
+    # negative one is not made negative by bicarbonate, so it stands.
+    u = uag_urine(uag)
+    del u["ph"]
+    f = urine_acid.urine_anion_gap(draw(u))
+    assert f.status is status
+    assert ("urine pH not given" in " ".join(f.reasons)) is (status is Status.caution)
+
+
 def test_uag_during_bicarbonate_loading_is_not_valid():
     f = urine_acid.urine_anion_gap(draw(uag_urine(-25), during=LoadingTest.bicarbonate_loading))
     assert f.status is Status.not_valid and "bicarbonate loading" in f.reasons[0]

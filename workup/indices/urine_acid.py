@@ -193,6 +193,11 @@ def urine_anion_gap(x: DrawInputs) -> Finding:
             f"urine pH {fmt(uph, 2)} is above {fmt(s.uag_urine_ph_invalid_above)}: bicarbonate is "
             "an unmeasured urine anion"
         )
+    elif uph is None and not negative:
+        j.caution(
+            f"urine pH not given: above {fmt(s.urine_ph_bicarbonaturia)} urine bicarbonate adds "
+            "to a positive gap; enter the urine pH"
+        )
     elif uph is not None and uph > s.urine_ph_bicarbonaturia and not negative:
         j.caution(
             f"urine pH {fmt(uph, 2)} is above {fmt(s.urine_ph_bicarbonaturia)}: some urine "
